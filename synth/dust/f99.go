@@ -1,7 +1,5 @@
 package dust
 
-import "math"
-
 // Fitzpatrick (1999), PASP 111, 63 ("F99"): an R_V-dependent curve built from
 // the Fitzpatrick & Massa (1990, ApJS 72, 163) ultraviolet parametrisation
 // shortward of 2700 Å and a cubic spline through optical/IR anchor points
@@ -144,5 +142,3 @@ func splineEval(x, y, m []float64, t float64) float64 {
 	b := (t - x[i]) / h
 	return a*y[i] + b*y[i+1] + ((a*a*a-a)*m[i]+(b*b*b-b)*m[i+1])*h*h/6
 }
-
-var _ = math.Abs
