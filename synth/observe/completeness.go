@@ -21,13 +21,13 @@ const (
 	//
 	// common practice for fits of artificial-star recovery fractions.
 	CompletenessLogistic CompletenessKind = "logistic"
-	// CompletenessTable takes c(m) from a user table (see ParseCompletenessTable).
-	CompletenessTable CompletenessKind = "table"
+	// CompletenessFromTable takes c(m) from a user table (see ParseCompletenessTable).
+	CompletenessFromTable CompletenessKind = "table"
 )
 
 // CompletenessKinds lists the accepted completeness words in a fixed order.
 func CompletenessKinds() []CompletenessKind {
-	return []CompletenessKind{CompletenessNone, CompletenessLogistic, CompletenessTable}
+	return []CompletenessKind{CompletenessNone, CompletenessLogistic, CompletenessFromTable}
 }
 
 // ParseCompletenessKind returns the kind named by word ("" means "none"), or an
@@ -68,7 +68,7 @@ type Completeness struct {
 	// WidthMag is w (mag), the logistic width (c falls from 0.73 c_max to
 	// 0.27 c_max over m50 ± w); allowed (0, 5].
 	WidthMag float64
-	// Table is the table used by CompletenessTable only.
+	// Table is the table used by CompletenessFromTable only.
 	Table *CompletenessTable
 }
 
@@ -80,7 +80,7 @@ func LogisticCompleteness(maxFraction, mag50, widthMag float64) Completeness {
 
 // TableCompleteness returns the completeness model read from a table.
 func TableCompleteness(t *CompletenessTable) Completeness {
-	return Completeness{Kind: CompletenessTable, Table: t}
+	return Completeness{Kind: CompletenessFromTable, Table: t}
 }
 
 func (c *Completeness) validate(field string) error {
@@ -96,7 +96,7 @@ func (c *Completeness) validate(field string) error {
 		if !(c.WidthMag > CompletenessWidthMinMag && c.WidthMag <= CompletenessWidthMaxMag) {
 			return fmt.Errorf("observe: %s.width %v mag outside allowed range (0, 5] mag", field, c.WidthMag)
 		}
-	case CompletenessTable:
+	case CompletenessFromTable:
 		if c.Table == nil || len(c.Table.magAB) < 2 {
 			return fmt.Errorf("observe: %s.table missing (completeness kind table needs a table loaded with LoadCompletenessTable or ParseCompletenessTable)", field)
 		}
@@ -119,7 +119,7 @@ func (c *Completeness) At(mag float64) float64 {
 	switch c.Kind {
 	case CompletenessLogistic:
 		return c.MaxFraction / (1 + math.Exp((mag-c.Mag50)/c.WidthMag)) // logistic form, common practice
-	case CompletenessTable:
+	case CompletenessFromTable:
 		return c.Table.At(mag)
 	}
 	return 1

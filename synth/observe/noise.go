@@ -18,14 +18,14 @@ const (
 	// NoiseBackgroundLimited is a purely sky-limited model: the flux error is the
 	// same for every source, σ_f = f5/5, where f5 is the flux at the 5σ depth.
 	NoiseBackgroundLimited NoiseKind = "background_limited"
-	// NoiseTable takes the random error from a user table of magnitude error vs
+	// NoiseFromTable takes the random error from a user table of magnitude error vs
 	// magnitude (NoiseModel.Table, see ParseErrorTable).
-	NoiseTable NoiseKind = "table"
+	NoiseFromTable NoiseKind = "table"
 )
 
 // NoiseKinds lists the accepted noise model words in a fixed order.
 func NoiseKinds() []NoiseKind {
-	return []NoiseKind{NoiseIvezic2019, NoiseBackgroundLimited, NoiseTable}
+	return []NoiseKind{NoiseIvezic2019, NoiseBackgroundLimited, NoiseFromTable}
 }
 
 // ParseNoiseKind returns the NoiseKind named by word, or an error listing the
@@ -61,7 +61,7 @@ type NoiseModel struct {
 	// by NoiseIvezic2019 only; allowed (0, 0.04]. Table 2 of the paper gives
 	// 0.038 for u and 0.039 for g, r, i, z, y.
 	Gamma float64
-	// Table is the error table used by NoiseTable only.
+	// Table is the error table used by NoiseFromTable only.
 	Table *ErrorTable
 }
 
@@ -78,7 +78,7 @@ func BackgroundLimitedNoise() NoiseModel {
 
 // TableNoise returns the noise model read from an error table.
 func TableNoise(t *ErrorTable) NoiseModel {
-	return NoiseModel{Kind: NoiseTable, Table: t}
+	return NoiseModel{Kind: NoiseFromTable, Table: t}
 }
 
 // validate checks the model; field is the name used in messages.
@@ -89,7 +89,7 @@ func (n *NoiseModel) validate(field string) error {
 			return fmt.Errorf("observe: %s.gamma %v outside allowed range (0, 0.04] (dimensionless, Ivezić et al. 2019 eq. 5)", field, n.Gamma)
 		}
 	case NoiseBackgroundLimited:
-	case NoiseTable:
+	case NoiseFromTable:
 		if n.Table == nil || len(n.Table.magAB) < 2 {
 			return fmt.Errorf("observe: %s.table missing (noise kind table needs a table loaded with LoadErrorTable or ParseErrorTable)", field)
 		}
@@ -125,7 +125,7 @@ func (n *NoiseModel) fluxVariance(flux, mag, f5 float64) float64 {
 	case NoiseBackgroundLimited:
 		s := f5 / 5 // S/N = 5 at f = f5 with a flux-independent error
 		return s * s
-	case NoiseTable:
+	case NoiseFromTable:
 		s := n.Table.fluxErr(mag, flux)
 		return s * s
 	}
