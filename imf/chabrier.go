@@ -177,7 +177,7 @@ func newChabrier(form ChabrierForm, loMsun, hiMsun, aHigh float64) (*Chabrier, e
 	c.lnMassScale = lnMass0 / mTot
 	if c.hasPL {
 		c.seg.c /= nTot
-		c.seg.pStart, c.seg.pWidth = c.pLN, nPL/nTot
+		c.seg.setProb(c.pLN, nPL/nTot)
 		c.seg.mStart, c.seg.mWidth = mLN/mTot, mPL/mTot
 	}
 	return c, nil
@@ -276,13 +276,7 @@ func (c *Chabrier) quantile(p float64) float64 {
 		}
 		return m
 	}
-	t := (p - c.seg.pStart) / c.seg.pWidth
-	if t < 0 {
-		t = 0
-	} else if t > 1 {
-		t = 1
-	}
-	return c.seg.invert(t)
+	return c.seg.invert(p)
 }
 
 // Rand draws one mass (Msun) as Quantile(u) of one uniform u = r.Float64()

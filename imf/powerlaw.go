@@ -27,6 +27,9 @@ type segment struct {
 	invEmL         float64 // 1/emL
 	invEm2L        float64 // 1/expm1(beta2 L) (or 1/L if beta2 == 0)
 	pStart, pWidth float64 // CDF at lo; number fraction in the segment
+	invBeta        float64 // 1/beta (0 if beta == 0)
+	qScale         float64 // emL/pWidth: 1 + (p - pStart) qScale = 1 + t expm1(beta L)
+	tScale         float64 // L/pWidth for beta == 0
 	mStart, mWidth float64 // mass fraction below lo; mass fraction in the segment
 }
 
@@ -81,16 +84,37 @@ func (s *segment) massFrac(m float64) float64 {
 	return math.Expm1(s.beta2*x) * s.invEm2L
 }
 
-// invert returns the mass at which the segment's number fraction is t in [0, 1]:
-//
-//	m = lo exp(log1p(t expm1(beta L)) / beta)   (m = lo exp(t L) for beta = 0)
-func (s *segment) invert(t float64) float64 {
-	if s.beta == 0 {
-		return s.loMsun * math.Exp(t*s.logRatio)
+// setProb records the segment's place in the CDF and the derived
+// quantile constants.
+func (s *segment) setProb(pStart, pWidth float64) {
+	s.pStart, s.pWidth = pStart, pWidth
+	if s.beta != 0 {
+		s.invBeta = 1 / s.beta
 	}
-	m := s.loMsun * math.Exp(math.Log1p(t*s.emL)/s.beta)
-	if m > s.hiMsun { // rounding at t -> 1
+	s.qScale = s.emL / pWidth
+	s.tScale = s.logRatio / pWidth
+}
+
+// invert returns the mass at which the CDF equals p, for p inside the
+// segment, inverting N(m)/N(hi) = t = (p - pStart)/pWidth:
+//
+//	m = lo exp(ln(1 + t expm1(beta L)) / beta)   (m = lo exp(t L) for beta = 0)
+//
+// ln(1 + u) is taken with math.Log rather than Log1p: for small u it loses
+// relative precision in the exponent x, but m = lo exp(x) needs only its
+// absolute precision (~1e-16), and Log is faster. The result is kept inside
+// [lo, hi] against rounding at the segment ends.
+func (s *segment) invert(p float64) float64 {
+	var m float64
+	if s.beta == 0 {
+		m = s.loMsun * math.Exp((p-s.pStart)*s.tScale)
+	} else {
+		m = s.loMsun * math.Exp(math.Log(1+(p-s.pStart)*s.qScale)*s.invBeta)
+	}
+	if m > s.hiMsun {
 		m = s.hiMsun
+	} else if !(m >= s.loMsun) { // also catches NaN from rounding below pStart
+		m = s.loMsun
 	}
 	return m
 }
@@ -136,7 +160,7 @@ func finishPowerLaw(name string, segs []segment, raws, rawm []float64) *PowerLaw
 	var pc, mc float64
 	for i := range segs {
 		segs[i].c /= nTot
-		segs[i].pStart, segs[i].pWidth = pc, raws[i]/nTot
+		segs[i].setProb(pc, raws[i]/nTot)
 		segs[i].mStart, segs[i].mWidth = mc, rawm[i]/mTot
 		pc += raws[i] / nTot
 		mc += rawm[i] / mTot
@@ -262,14 +286,7 @@ func (f *PowerLaw) Quantile(p float64) float64 {
 }
 
 func (f *PowerLaw) quantile(p float64) float64 {
-	s := &f.segs[f.findP(p)]
-	t := (p - s.pStart) / s.pWidth
-	if t < 0 {
-		t = 0
-	} else if t > 1 {
-		t = 1
-	}
-	return s.invert(t)
+	return f.segs[f.findP(p)].invert(p)
 }
 
 // Mean returns the mean mass (Msun): the ratio of the closed-form mass and
