@@ -2,6 +2,10 @@ package imf
 
 import (
 	"math"
+	"os"
+	"path/filepath"
+	"strconv"
+	"strings"
 	"testing"
 )
 
@@ -44,5 +48,39 @@ func TestChabrierPrintedAHigh(t *testing.T) {
 				t.Errorf("%s lo=%g %s = %.6g, reference %g (tol %g)", c.form, c.lo, v.name, v.got, v.want, v.tol)
 			}
 		}
+	}
+}
+
+// TestNormQuantileScipy checks the inverse normal CDF behind the Chabrier
+// quantile, over the whole table including the tails, against
+// scipy.stats.norm.ppf (scipy 1.10.1, testdata/scipy_reference.tsv).
+// Tolerance 1e-12 relative (absolute near 0): math.Erfinv implements
+// Wichura's AS 241, accurate to about 1e-16, and 2q-1 is exact or one
+// rounding away for these q.
+func TestNormQuantileScipy(t *testing.T) {
+	t.Parallel()
+	data, err := os.ReadFile(filepath.Join("testdata", "scipy_reference.tsv"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	n := 0
+	for _, line := range strings.Split(string(data), "\n") {
+		f := strings.Split(line, "\t")
+		if len(f) != 6 || f[0] != "normal" {
+			continue
+		}
+		q, _ := strconv.ParseFloat(f[4], 64)
+		want, _ := strconv.ParseFloat(f[5], 64)
+		got := normQuantile(q)
+		if math.Abs(got-want) > 1e-12*math.Max(1, math.Abs(want)) {
+			t.Errorf("normQuantile(%g) = %.17g, scipy %.17g", q, got, want)
+		}
+		if back := normCDF(got); math.Abs(back-q) > 1e-12*q {
+			t.Errorf("normCDF(normQuantile(%g)) = %.17g", q, back)
+		}
+		n++
+	}
+	if n < 8 {
+		t.Errorf("only %d normal rows", n)
 	}
 }
