@@ -283,7 +283,7 @@ func (c *Chabrier) Quantile(p float64) float64 {
 func (c *Chabrier) quantile(p float64) float64 {
 	if c.hasLN && (p < c.pLN || !c.hasPL) {
 		z := normQuantile(c.phiLo + p/c.lnProbScale)
-		m := math.Exp((c.y0 + c.sigma*z) * ln10)
+		m := fastExp((c.y0 + c.sigma*z) * ln10)
 		if m < c.loMsun { // rounding at the ends of the lognormal part
 			m = c.loMsun
 		} else if m > c.joinMsun {

@@ -100,16 +100,17 @@ func (s *segment) setProb(pStart, pWidth float64) {
 //
 //	m = lo exp(ln(1 + t expm1(beta L)) / beta)   (m = lo exp(t L) for beta = 0)
 //
-// ln(1 + u) is taken with math.Log rather than Log1p: for small u it loses
-// relative precision in the exponent x, but m = lo exp(x) needs only its
-// absolute precision (~1e-16), and Log is faster. The result is kept inside
-// [lo, hi] against rounding at the segment ends.
+// ln(1 + u) is taken with a plain log rather than log1p: for small u it
+// loses relative precision in the exponent x, but m = lo exp(x) needs only
+// its absolute precision (~1e-16), and log is faster. log and exp are the
+// table-driven fastLog/fastExp (fastmath.go, a few ulp). The result is kept
+// inside [lo, hi] against rounding at the segment ends.
 func (s *segment) invert(p float64) float64 {
 	var m float64
 	if s.beta == 0 {
-		m = s.loMsun * math.Exp((p-s.pStart)*s.tScale)
+		m = s.loMsun * fastExp((p-s.pStart)*s.tScale)
 	} else {
-		m = s.loMsun * math.Exp(math.Log(1+(p-s.pStart)*s.qScale)*s.invBeta)
+		m = s.loMsun * fastExp(fastLog(1+(p-s.pStart)*s.qScale)*s.invBeta)
 	}
 	if m > s.hiMsun {
 		m = s.hiMsun
