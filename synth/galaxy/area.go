@@ -83,10 +83,12 @@ func NewCone(lDeg, bDeg, radiusDeg float64) (*Cone, error) {
 	return c, nil
 }
 
-// WholeSky returns the cone of radius 180° (the whole sphere, 4π sr).
-func WholeSky() *Cone {
-	c, _ := NewCone(0, 90, 180)
-	return c
+// WholeSky returns the whole sphere (4π sr) as the Galactic rectangle l ∈ [−180, 180],
+// b ∈ [−90, 90], whose graded quadrature resolves the disc and bulge (a cone of radius 180°
+// is the same area with a plain, ungraded rule).
+func WholeSky() *Rect {
+	r, _ := NewRect(Galactic, -180, 180, -90, 90)
+	return r
 }
 
 // SolidAngleSr returns 2π (1 − cos r).
@@ -121,7 +123,8 @@ func (c *Cone) SampleDirection(r *rand.Rand) (lDeg, bDeg float64) {
 
 // QuadratureDirections returns order Gauss–Legendre nodes in cos ρ on [cos r, 1] times
 // 2·order equally spaced position angles (the trapezoid rule, spectrally accurate for a
-// periodic integrand): 2·order² directions.
+// periodic integrand): 2·order² directions. The rule is not graded toward the Galactic
+// plane: for large cones that cross the plane use a higher order, a Rect or a PixelList.
 func (c *Cone) QuadratureDirections(order int) []Direction {
 	checkOrder(order)
 	x, w := legendre(order, 1-c.oneMinusCosR, 1)
@@ -253,30 +256,79 @@ func (q *Rect) SampleDirection(r *rand.Rand) (lDeg, bDeg float64) {
 	return toGal(q.System, lon, lat)
 }
 
-// QuadratureDirections returns order Gauss–Legendre nodes in sin(latitude) times order
-// Gauss–Legendre nodes in longitude (2·order equally spaced ones for a full 360° range):
-// order² (or 2·order²) directions.
-func (q *Rect) QuadratureDirections(order int) []Direction {
-	checkOrder(order)
-	xs, ws := legendre(order, math.Sin(q.LatMinDeg*degToRad), math.Sin(q.LatMaxDeg*degToRad))
-	var xl, wl []float64
-	if q.widthDeg == 360 {
-		n := 2 * order
-		for j := 0; j < n; j++ {
-			xl = append(xl, q.LonMinDeg+(float64(j)+0.5)*360/float64(n))
-			wl = append(wl, 2*math.Pi/float64(n))
+// Breakpoints of the graded quadrature of Galactic rectangles: sin b values near the
+// plane and longitudes (degrees from l = 0) near the Galactic centre, where the disc and
+// bulge densities vary fastest with direction (scale heights of a few hundred pc seen from
+// kpc distances). Our numerical choice, checked by TestShellMassesAgainstQuad.
+var (
+	gradedSinB = []float64{-0.3, -0.1, -0.03, -0.01, -0.003, -0.001, 0, 0.001, 0.003, 0.01, 0.03, 0.1, 0.3}
+	gradedLDeg = []float64{-180, -90, -45, -20, -10, -5, -2, 0, 2, 5, 10, 20, 45, 90, 180}
+)
+
+// bands returns [lo, hi] cut at the breakpoints bp + k·period (k any integer when
+// period > 0) that lie strictly inside.
+func bands(lo, hi float64, bp []float64, period float64) []float64 {
+	cuts := []float64{lo}
+	var inner []float64
+	if period == 0 {
+		for _, b := range bp {
+			if b > lo && b < hi {
+				inner = append(inner, b)
+			}
 		}
 	} else {
-		xl, wl = legendre(order, q.LonMinDeg, q.LonMaxDeg)
-		for j := range wl {
-			wl[j] *= degToRad
+		for k := math.Floor(lo/period) - 1; k <= math.Ceil(hi/period)+1; k++ {
+			for _, b := range bp {
+				v := b + k*period
+				if v > lo && v < hi {
+					inner = append(inner, v)
+				}
+			}
 		}
+	}
+	slices.Sort(inner)
+	inner = slices.Compact(inner)
+	cuts = append(cuts, inner...)
+	return append(cuts, hi)
+}
+
+// QuadratureDirections returns a product Gauss–Legendre rule: in sin(latitude) and in
+// longitude, each with order nodes per band. For Galactic rectangles the bands are cut at
+// the graded breakpoints near the plane (sin b = 0, ±0.001, ±0.003, ±0.01, ±0.03, ±0.1,
+// ±0.3) and near the Galactic centre (l = 0, ±2, ±5, ±10, ±20, ±45, ±90, 180 deg) that fall
+// inside, so sight lines through the thin disc and the bulge are resolved; an equatorial
+// rectangle uses one band per coordinate. Up to 14 × 14 × order² directions.
+func (q *Rect) QuadratureDirections(order int) []Direction {
+	return q.quadrature(order, nil)
+}
+
+// quadrature is QuadratureDirections with extra sin(latitude) breakpoints (Galactic only).
+func (q *Rect) quadrature(order int, extraSinB []float64) []Direction {
+	checkOrder(order)
+	s0, s1 := math.Sin(q.LatMinDeg*degToRad), math.Sin(q.LatMaxDeg*degToRad)
+	bs := []float64{s0, s1}
+	bl := []float64{q.LonMinDeg, q.LonMaxDeg}
+	if q.System == Galactic {
+		bs = bands(s0, s1, append(slices.Clone(gradedSinB), extraSinB...), 0)
+		bl = bands(q.LonMinDeg, q.LonMaxDeg, gradedLDeg, 360)
+	}
+	var xs, ws, xl, wl []float64
+	for i := 0; i+1 < len(bs); i++ {
+		x, w := legendre(order, bs[i], bs[i+1])
+		xs, ws = append(xs, x...), append(ws, w...)
+	}
+	for i := 0; i+1 < len(bl); i++ {
+		x, w := legendre(order, bl[i], bl[i+1])
+		for j := range w {
+			w[j] *= degToRad
+		}
+		xl, wl = append(xl, x...), append(wl, w...)
 	}
 	out := make([]Direction, 0, len(xs)*len(xl))
 	for i := range xs {
 		lat := math.Asin(xs[i]) * radToDeg
 		for j := range xl {
-			l, b := toGal(q.System, math.Mod(xl[j]+720, 360), lat)
+			l, b := toGal(q.System, math.Mod(math.Mod(xl[j], 360)+360, 360), lat)
 			out = append(out, Direction{LDeg: l, BDeg: b, WeightSr: ws[i] * wl[j]})
 		}
 	}
