@@ -95,8 +95,8 @@ func (p ChabrierParams) ContinuousAHigh() float64 {
 //	∫ 10^y exp[-(y-y0)^2/(2 s^2)] dy = s sqrt(2 pi) exp(y0 k + s^2 k^2/2) Phi((y - y0 - s^2 k)/s)
 //
 // The quantile there inverts Phi with math.Erfinv (Wichura 1988, algorithm
-// AS 241, relative accuracy about 1e-16); above 1 Msun it is the power-law
-// inverse.
+// AS 241, relative accuracy about 1e-16), refined by one Newton step in the
+// tails; above 1 Msun it is the power-law inverse.
 type Chabrier struct {
 	form        ChabrierForm
 	loMsun      float64

@@ -40,7 +40,7 @@ func TestBadSpec(t *testing.T) {
 		{"breaks_on_kroupa", imf.Spec{Kind: "kroupa", Breaks: []float64{1}}, []string{`only used by kind "broken_power_law"`}},
 		{"table_path_on_salpeter", imf.Spec{Kind: "salpeter", TablePath: "x.txt"}, []string{`table_path is only used by kind "table"`}},
 		{"table_without_path", imf.Spec{Kind: "table"}, []string{"needs table_path"}},
-		{"table_limits_outside", imf.Spec{Kind: "table", TablePath: filepath.Join("testdata", "table_invented.txt"), LoMsun: 0.01}, []string{"0.01 Msun is outside the supported range [0.05, 120] Msun"}},
+		{"table_limits_outside", imf.Spec{Kind: "table", TablePath: filepath.Join("testdata", "table_invented.txt"), LoMsun: 0.01}, []string{"0.01 Msun is outside the range of the table [0.05, 120] Msun"}},
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			_, err := imf.New(c.spec)

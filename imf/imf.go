@@ -155,6 +155,10 @@ func New(spec Spec) (IMF, error) {
 // resolveLimits applies defaults (0 means default) and checks
 // 0 < lo < hi, both finite, and, if minMsun > 0, minMsun <= lo, hi <= maxMsun.
 func resolveLimits(kind string, loMsun, hiMsun, defLo, defHi, minMsun, maxMsun float64) (float64, float64, error) {
+	rangeName := "supported range"
+	if kind == KindTable {
+		rangeName = "range of the table"
+	}
 	if loMsun == 0 {
 		loMsun = defLo
 	}
@@ -169,7 +173,7 @@ func resolveLimits(kind string, loMsun, hiMsun, defLo, defHi, minMsun, maxMsun f
 			return 0, 0, specErrorf("%s for %s: %g Msun is not a positive finite mass", v.name, kind, v.val)
 		}
 		if minMsun > 0 && (v.val < minMsun || v.val > maxMsun) {
-			return 0, 0, specErrorf("%s for %s: %g Msun is outside the supported range [%g, %g] Msun", v.name, kind, v.val, minMsun, maxMsun)
+			return 0, 0, specErrorf("%s for %s: %g Msun is outside the %s [%g, %g] Msun", v.name, kind, v.val, rangeName, minMsun, maxMsun)
 		}
 	}
 	if loMsun >= hiMsun {

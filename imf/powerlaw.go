@@ -14,8 +14,8 @@ import (
 //
 //	N(m) = c lo E(beta, ln(m/lo)),  E(b, x) = expm1(b x)/b  (= x for b = 0)
 //
-// and the mass is c lo^2 E(2 - alpha, ln(m/lo)) (integrals of a power law;
-// any calculus text, e.g. Abramowitz & Stegun 1964, eq. 3.3.15 style).
+// and the mass is c lo^2 E(2 - alpha, ln(m/lo)) (the elementary integral of
+// m^-alpha and m^(1-alpha), written in ln m; common practice).
 type segment struct {
 	loMsun, hiMsun float64
 	alpha          float64
