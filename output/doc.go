@@ -1,0 +1,99 @@
+// Package output writes starmock catalogues: streaming, bounded-memory writers for
+// Apache Parquet, Apache Arrow IPC files, FITS binary tables and CSV (in the ECSV
+// dialect), each carrying the run manifest; readers that load them back for comparison;
+// and partitioned Parquet datasets for sharded runs.
+//
+// # Data model
+//
+// A catalogue is a list of Columns (name, unit, description, Kind, nullability, FITS
+// string width, Parquet encoding hint) and a stream of Batches: column-major blocks of
+// rows held in typed Go slices with optional per-column validity. A producer allocates
+// one Batch per worker with NewBatch, refills it after Reset for every chunk, and hands
+// it to Writer.Write, which encodes it before returning (the batch can be reused at
+// once). Memory is bounded by the batch size times the row width, never by the number of
+// stars.
+//
+// # Formats
+//
+//	kind     Parquet (physical/logical)   Arrow    FITS TFORM         ECSV datatype
+//	Float32  FLOAT                        float32  E                  float32
+//	Float64  DOUBLE                       float64  D                  float64
+//	Int64    INT64                        int64    K                  int64
+//	Int32    INT32                        int32    J                  int32
+//	Int8     INT32 / INT(8,signed)        int8     I (int16, widened) int8
+//	Bool     BOOLEAN                      bool     L                  bool
+//	String   BYTE_ARRAY / STRING          utf8     nA (n = MaxLen)    string
+//
+// Nulls: Parquet and Arrow store validity exactly. FITS uses NaN for floats, TNULLn
+// (the most negative value of the stored type) for integers, byte 0 for logicals and an
+// empty string for strings (FITS Standard 4.0 §7.3.3.1); a valid integer equal to the
+// TNULL value is refused with an error. ECSV writes an empty field.
+//
+// Parquet: one row group per Write; snappy pages by default (zstd or none on request);
+// plain encoding for numbers and booleans, dictionary encoding only for String columns
+// and columns marked EncodingDictionary; min/max statistics on; the Arrow schema (with
+// the unit and description field metadata) stored under "ARROW:schema" so Arrow-aware
+// readers recover units; the manifest JSON in the footer key/value metadata under
+// "starmock.manifest", written at Close with the final counts. The column chunks of a
+// row group are encoded by Options.Parallelism goroutines into separate in-memory page
+// buffers and flushed in column order, so the bytes do not depend on the goroutine
+// count.
+//
+// Arrow IPC: the file format (ipc.NewFileWriter), uncompressed so it can be
+// memory-mapped; units in field metadata "unit"/"description"; the manifest as
+// schema-level metadata "starmock.manifest" (as known at Create).
+//
+// FITS: an empty primary HDU with ORIGIN, CREATOR, SYNTHETC = T (SYNTHETIC cut to the
+// 8-character keyword limit), SEED, SHARDIDX, SHARDCNT; HDU 1 the BINTABLE "CATALOG"
+// with TTYPEn, TFORMn, TUNITn, TNULLn, TCOMMn (TCOMM is the column description keyword
+// of the FITS keyword dictionary; values longer than one card are cut); HDU 2 an IMAGE
+// extension "MANIFEST" whose 8-bit data is the manifest JSON, written at Close. Rows
+// are streamed and NAXIS2 is patched at Close. Strings are NUL-padded; trailing blanks
+// are not significant.
+//
+// CSV: ECSV 1.0, which astropy reads with types and units
+// (Table.read(path, format="ascii.ecsv")) and every CSV reader that skips "#" lines
+// reads as plain CSV. The YAML header holds the column list (name, unit, datatype,
+// description) and meta: tool, tool_version, synthetic, seed and the manifest JSON
+// under "starmock.manifest" (as known at Create). Floats are printed as the shortest
+// decimal that parses back to the same binary value, so the text round-trips exactly.
+//
+// # Files, atomicity and manifests
+//
+// Every writer writes `.<name>.tmp-XXXX` in the destination folder and renames it on
+// Close; Abort, a failed Close or a write error leaves nothing under the final name. An
+// unwritable folder is reported by Create. Close also writes the sidecar manifest
+// `<path>.manifest.json` (final row count; optionally a UTC time stamp via Options.Now).
+// Nothing inside a data file depends on the clock, so the same batches give
+// byte-identical files in every format (TestDeterministic).
+//
+// # Datasets
+//
+// For sharded or multi-process runs, CreatePart writes `part-00000.parquet`, … into one
+// folder with sidecars named `_part-00000.parquet.manifest.json`: readers of Parquet
+// datasets (pyarrow.dataset, DuckDB's read_parquet('dir/*.parquet')) skip names starting
+// with "_" or ".", so they see the parts as one table. ReadDataset reads them back in
+// part order.
+//
+// # References
+//
+//   - Apache Parquet format specification, https://parquet.apache.org/docs/file-format/
+//     (row groups, column chunks, definition levels, dictionary and plain encodings).
+//   - Apache Arrow columnar format and IPC file format,
+//     https://arrow.apache.org/docs/format/Columnar.html.
+//   - Pence, W. D., Chiappetti, L., Page, C. G., Shaw, R. A., Stobie, E. 2010, "Definition
+//     of the Flexible Image Transport System (FITS), version 3.0", A&A 524, A42,
+//     doi:10.1051/0004-6361/201015362; FITS Standard 4.0 (IAU FITS Working Group, 2018).
+//   - Greisen, E. W., et al. 2006 / IAU 2015 recommended units for FITS (TUNIT strings
+//     such as "solMass", "solLum", "solRad", "mag", "pc", "yr").
+//   - Aldcroft, T., et al., "Enhanced Character Separated Values table format (ECSV)",
+//     astropy APE 6 (2013, ECSV 1.0 2021), https://github.com/astropy/astropy-APEs.
+//
+// # Incomplete
+//
+// The FITS writer does not use the long-string CONTINUE convention: column descriptions
+// longer than 68 characters are cut in TCOMMn (the full text is in the manifest). Arrow
+// IPC and ECSV headers carry the manifest as it was at Create (row and detection counts
+// updated later appear only in the sidecar, the Parquet footer and the FITS MANIFEST
+// extension).
+package output

@@ -1,0 +1,308 @@
+package output
+
+import (
+	"encoding/base64"
+	"fmt"
+	"sync"
+	"sync/atomic"
+	"unsafe"
+
+	"github.com/apache/arrow-go/v18/arrow"
+	"github.com/apache/arrow-go/v18/arrow/flight"
+	"github.com/apache/arrow-go/v18/arrow/memory"
+	"github.com/apache/arrow-go/v18/parquet"
+	"github.com/apache/arrow-go/v18/parquet/compress"
+	"github.com/apache/arrow-go/v18/parquet/file"
+	"github.com/apache/arrow-go/v18/parquet/metadata"
+	"github.com/apache/arrow-go/v18/parquet/pqarrow"
+)
+
+// Field metadata keys written on every Arrow field (Arrow IPC and the Arrow schema
+// stored in Parquet).
+const (
+	MetaUnit        = "unit"
+	MetaDescription = "description"
+)
+
+// ArrowSchema returns the Arrow schema of a column list: one field per column with its
+// Arrow type (float32, float64, int64, int32, int8, bool, utf8), nullability, and field
+// metadata "unit" and "description". schemaMeta, if not nil, becomes the schema-level
+// metadata (keys sorted for determinism by the caller).
+func ArrowSchema(cols []Column, schemaMeta *arrow.Metadata) *arrow.Schema {
+	fields := make([]arrow.Field, len(cols))
+	for i, c := range cols {
+		md := arrow.NewMetadata([]string{MetaDescription, MetaUnit}, []string{c.Description, c.Unit})
+		fields[i] = arrow.Field{Name: c.Name, Type: arrowType(c.Kind), Nullable: c.Nullable, Metadata: md}
+	}
+	return arrow.NewSchema(fields, schemaMeta)
+}
+
+func arrowType(k Kind) arrow.DataType {
+	switch k {
+	case Float32:
+		return arrow.PrimitiveTypes.Float32
+	case Float64:
+		return arrow.PrimitiveTypes.Float64
+	case Int64:
+		return arrow.PrimitiveTypes.Int64
+	case Int32:
+		return arrow.PrimitiveTypes.Int32
+	case Int8:
+		return arrow.PrimitiveTypes.Int8
+	case Bool:
+		return arrow.FixedWidthTypes.Boolean
+	case String:
+		return arrow.BinaryTypes.String
+	}
+	panic(fmt.Sprintf("output: invalid kind %d", k))
+}
+
+// ParquetCreatedBy is the created_by string of the Parquet footer. It carries no
+// build-specific detail, so identical batches give identical files.
+const ParquetCreatedBy = "starmock (parquet-go via apache arrow-go v18)"
+
+// parquetProps builds the writer properties shared by the catalogue writer and the
+// I/O floor: the codec, statistics on, no page index or bloom filter, dictionary only
+// where the column asks for it, row groups never split (one per Write).
+func parquetProps(cols []Column, codec Compression, mem memory.Allocator) *parquet.WriterProperties {
+	opts := []parquet.WriterProperty{
+		parquet.WithAllocator(mem),
+		parquet.WithCreatedBy(ParquetCreatedBy),
+		parquet.WithCompression(codecOf(codec)),
+		parquet.WithDictionaryDefault(false),
+		parquet.WithStats(true),
+		parquet.WithMaxRowGroupLength(1 << 40),
+		parquet.WithDataPageSize(1 << 20),
+		parquet.WithVersion(parquet.V2_6),
+	}
+	for _, c := range cols {
+		if c.Encoding == EncodingDictionary || (c.Encoding == EncodingAuto && c.Kind == String) {
+			opts = append(opts, parquet.WithDictionaryFor(c.Name, true))
+		}
+	}
+	return parquet.NewWriterProperties(opts...)
+}
+
+func codecOf(c Compression) compress.Compression {
+	switch c {
+	case Zstd:
+		return compress.Codecs.Zstd
+	case Uncompressed:
+		return compress.Codecs.Uncompressed
+	}
+	return compress.Codecs.Snappy
+}
+
+// parquetWriter encodes each batch as one buffered row group whose column chunks are
+// encoded concurrently (each column writer has its own in-memory page sink; the chunks
+// are flushed to the file in column order when the row group closes, so the bytes do
+// not depend on scheduling).
+type parquetWriter struct {
+	*base
+	fw      *file.Writer
+	scratch []colScratch
+}
+
+// colScratch holds per-column buffers reused across batches (no per-row allocation).
+type colScratch struct {
+	def  []int16
+	f32  []float32
+	f64  []float64
+	i64  []int64
+	i32  []int32
+	b    []bool
+	strs []parquet.ByteArray
+}
+
+func newParquetWriter(b *base) (*parquetWriter, error) {
+	props := parquetProps(b.cols, b.opts.Compression, memory.DefaultAllocator)
+	asch := ArrowSchema(b.cols, nil)
+	psch, err := pqarrow.ToParquet(asch, props, pqarrow.DefaultWriterProps())
+	if err != nil {
+		return nil, fmt.Errorf("output: parquet schema: %w", err)
+	}
+	kv := metadata.KeyValueMetadata{}
+	// Store the Arrow schema (with the unit/description field metadata) the way pqarrow
+	// and pyarrow do, so Arrow-aware readers recover units.
+	kv.Append("ARROW:schema", base64.StdEncoding.EncodeToString(flight.SerializeSchema(asch, memory.DefaultAllocator)))
+	fw, err := file.NewParquetWriterWithError(b.file.buf, psch.Root(), file.WithWriterProps(props), file.WithWriteMetadata(kv))
+	if err != nil {
+		return nil, fmt.Errorf("output: parquet writer: %w", err)
+	}
+	return &parquetWriter{base: b, fw: fw, scratch: make([]colScratch, len(b.cols))}, nil
+}
+
+// Write encodes the batch as one row group.
+func (w *parquetWriter) Write(b *Batch) error {
+	if err := w.check(b); err != nil {
+		return err
+	}
+	if b.N == 0 {
+		return nil
+	}
+	rg, err := w.fw.AppendBufferedRowGroupChecked()
+	if err != nil {
+		return w.fail(err)
+	}
+	ncol := len(w.cols)
+	par := min(w.opts.Parallelism, ncol)
+	errs := make([]error, ncol)
+	if par <= 1 {
+		for c := range ncol {
+			errs[c] = w.writeColumn(rg, b, c)
+		}
+	} else {
+		var next atomic.Int64
+		var wg sync.WaitGroup
+		for range par {
+			wg.Add(1)
+			go func() {
+				defer wg.Done()
+				for {
+					c := int(next.Add(1) - 1)
+					if c >= ncol {
+						return
+					}
+					errs[c] = w.writeColumn(rg, b, c)
+				}
+			}()
+		}
+		wg.Wait()
+	}
+	for c, e := range errs {
+		if e != nil {
+			rg.Close()
+			return w.fail(fmt.Errorf("column %q: %w", w.cols[c].Name, e))
+		}
+	}
+	if err := rg.Close(); err != nil {
+		return w.fail(err)
+	}
+	w.rows += int64(b.N)
+	return nil
+}
+
+// writeColumn writes column c of the batch into the row group. Null rows get
+// definition level 0 and are left out of the value stream (Parquet's layout).
+func (w *parquetWriter) writeColumn(rg file.BufferedRowGroupWriter, b *Batch, c int) error {
+	cw, err := rg.Column(c)
+	if err != nil {
+		return err
+	}
+	s := &w.scratch[c]
+	n := b.N
+	var valid []bool
+	if b.Valid != nil && b.Valid[c] != nil && w.cols[c].Nullable {
+		valid = b.Valid[c][:n]
+	}
+	var def []int16
+	if w.cols[c].Nullable {
+		s.def = grow(s.def, n)
+		def = s.def
+		for i := range def {
+			def[i] = 1
+		}
+		for i, ok := range valid {
+			if !ok {
+				def[i] = 0
+			}
+		}
+	}
+	switch col := b.Cols[c].(type) {
+	case []float32:
+		v := col[:n]
+		if valid != nil {
+			s.f32 = compact(s.f32, v, valid)
+			v = s.f32
+		}
+		_, err = cw.(*file.Float32ColumnChunkWriter).WriteBatch(v, def, nil)
+	case []float64:
+		v := col[:n]
+		if valid != nil {
+			s.f64 = compact(s.f64, v, valid)
+			v = s.f64
+		}
+		_, err = cw.(*file.Float64ColumnChunkWriter).WriteBatch(v, def, nil)
+	case []int64:
+		v := col[:n]
+		if valid != nil {
+			s.i64 = compact(s.i64, v, valid)
+			v = s.i64
+		}
+		_, err = cw.(*file.Int64ColumnChunkWriter).WriteBatch(v, def, nil)
+	case []int32:
+		v := col[:n]
+		if valid != nil {
+			s.i32 = compact(s.i32, v, valid)
+			v = s.i32
+		}
+		_, err = cw.(*file.Int32ColumnChunkWriter).WriteBatch(v, def, nil)
+	case []int8:
+		// Parquet stores int8 as INT32 annotated INT(8, signed).
+		s.i32 = s.i32[:0]
+		for i, x := range col[:n] {
+			if valid == nil || valid[i] {
+				s.i32 = append(s.i32, int32(x))
+			}
+		}
+		_, err = cw.(*file.Int32ColumnChunkWriter).WriteBatch(s.i32, def, nil)
+	case []bool:
+		v := col[:n]
+		if valid != nil {
+			s.b = compact(s.b, v, valid)
+			v = s.b
+		}
+		_, err = cw.(*file.BooleanColumnChunkWriter).WriteBatch(v, def, nil)
+	case []string:
+		s.strs = s.strs[:0]
+		for i, x := range col[:n] {
+			if valid == nil || valid[i] {
+				// Zero-copy view of the string bytes; the encoder copies them before
+				// WriteBatch returns and never writes through the slice.
+				s.strs = append(s.strs, unsafe.Slice(unsafe.StringData(x), len(x)))
+			}
+		}
+		_, err = cw.(*file.ByteArrayColumnChunkWriter).WriteBatch(s.strs, def, nil)
+	default:
+		err = fmt.Errorf("unsupported column type %T", col)
+	}
+	return err
+}
+
+func grow[T any](s []T, n int) []T {
+	if cap(s) < n {
+		return make([]T, n)
+	}
+	return s[:n]
+}
+
+// compact copies the valid values of v into dst (reused) in order.
+func compact[T any](dst, v []T, valid []bool) []T {
+	dst = dst[:0]
+	for i, ok := range valid {
+		if ok {
+			dst = append(dst, v[i])
+		}
+	}
+	return dst
+}
+
+// Close writes the footer (with the final manifest under ManifestKey), renames the file
+// into place and writes the sidecar.
+func (w *parquetWriter) Close() error {
+	return w.commit(func() error {
+		js, err := marshalManifest(w.finalManifest())
+		if err != nil {
+			return err
+		}
+		if err := w.fw.AppendKeyValueMetadata(ManifestKey, string(js)); err != nil {
+			return err
+		}
+		return w.fw.Close()
+	})
+}
+
+// Abort discards the file.
+func (w *parquetWriter) Abort() error {
+	return w.abort()
+}
