@@ -61,15 +61,19 @@ func (l *ccmLaw) ALambdaOverAV(lambdaAA float64) (float64, error) {
 }
 
 // ccmAB returns CCM's a(x), b(x) for x in [0.3, 10] μm⁻¹ (caller checks).
+// CCM gives each piece as a closed interval, but the pieces do not join
+// exactly (A/A_V jumps by about 0.01 at x = 3.3 for R_V = 3.1); a boundary
+// point x = 1.1, 3.3 or 8 is given to the shorter-wavelength piece, as the
+// python3-extinction reference does, so the two agree at the boundaries too.
 func ccmAB(x float64, optA, optB []float64) (a, b float64) {
 	switch {
 	case x < 1.1: // infrared, CCM eqs. 2a, 2b
 		p := math.Pow(x, 1.61)
 		return 0.574 * p, -0.527 * p
-	case x <= 3.3: // optical / NIR, CCM eqs. 3a, 3b (or O'Donnell 1994 eq. 2)
+	case x < 3.3: // optical / NIR, CCM eqs. 3a, 3b (or O'Donnell 1994 eq. 2)
 		y := x - 1.82
 		return horner(optA, y), horner(optB, y)
-	case x <= 8: // ultraviolet, CCM eqs. 4a, 4b
+	case x < 8: // ultraviolet, CCM eqs. 4a, 4b
 		var fa, fb float64
 		if x >= 5.9 { // CCM eqs. 4c, 4d
 			d := x - 5.9

@@ -65,9 +65,13 @@ func TestCCMTable3(t *testing.T) {
 	t.Parallel()
 	_, rows := readTSV(t, "testdata/solar_and_calibration_values.tsv")
 	want := map[string]float64{}
+	formula := map[string]float64{}
 	for _, r := range rows {
 		if strings.HasPrefix(r[0], "ccm_table3_") {
 			want[strings.TrimPrefix(r[0], "ccm_table3_")] = parseF(t, r[1])
+		}
+		if strings.HasPrefix(r[0], "ccm_formula_") {
+			formula[strings.TrimPrefix(r[0], "ccm_formula_")] = parseF(t, r[1])
 		}
 	}
 	// effective wavelengths (μm) as listed in the same rows' notes
@@ -103,6 +107,14 @@ func TestCCMTable3(t *testing.T) {
 		}
 		if math.Abs(got-w) > 0.02 {
 			t.Errorf("%s at %g μm: got %.3f, CCM89 Table 3 (from memory) %.3f, tol 0.02", c.key, c.lamU, got, w)
+		}
+		// the kit's ccm_formula_* rows: the formula evaluated by the kit's
+		// author, printed to 3 decimals; tolerance half a unit of the last
+		// digit plus 1e-6 for the rounding of a printed 5 (5.01e-4)
+		if f, ok := formula[c.key]; !ok {
+			t.Errorf("row ccm_formula_%s missing", c.key)
+		} else if math.Abs(got-f) > 5.01e-4 {
+			t.Errorf("%s at %g μm: got %.5f, kit formula row %.3f, tol 5e-4", c.key, c.lamU, got, f)
 		}
 	}
 }
@@ -220,4 +232,41 @@ func TestEBV(t *testing.T) {
 	if _, err := EBV(1, 1.5); !errors.Is(err, ErrRVRange) {
 		t.Errorf("EBV with R_V 1.5: want ErrRVRange, got %v", err)
 	}
+}
+
+// TestLawsAgainstReferenceFine compares every law at R_V = 2.5, 3.1 and 5.0
+// with testdata/extinction_curves_fine.tsv, the same reference library
+// (python3-extinction 0.4.6, numpy 1.24.2; testdata/regen_extinction_fine.py)
+// printed with 17 significant digits on a log grid that includes the CCM
+// piece boundaries and the F99 knots. Tolerance 1e-12 (absolute; values are
+// O(1)): both sides evaluate the same published formulae in double precision,
+// so only rounding differences remain (measured max is logged).
+func TestLawsAgainstReferenceFine(t *testing.T) {
+	t.Parallel()
+	_, rows := readTSV(t, "testdata/extinction_curves_fine.tsv")
+	if len(rows) < 3000 {
+		t.Fatalf("fine table has only %d rows", len(rows))
+	}
+	laws := map[string]Law{}
+	maxDiff := 0.0
+	for _, r := range rows {
+		key := r[0] + "/" + r[1]
+		law, ok := laws[key]
+		if !ok {
+			law = mustLaw(t, r[0], parseF(t, r[1]))
+			laws[key] = law
+		}
+		w, want := parseF(t, r[2]), parseF(t, r[3])
+		got, err := law.ALambdaOverAV(w)
+		if err != nil {
+			t.Errorf("%s at %.17g Å: %v", key, w, err)
+			continue
+		}
+		d := math.Abs(got - want)
+		maxDiff = math.Max(maxDiff, d)
+		if d > 1e-12 {
+			t.Errorf("%s at %.17g Å: got %.17g, python3-extinction %.17g (diff %.2g)", key, w, got, want, d)
+		}
+	}
+	t.Logf("%d values, %d law/R_V pairs, max |diff| = %.2g", len(rows), len(laws), maxDiff)
 }
