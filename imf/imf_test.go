@@ -665,3 +665,53 @@ func TestExpectedNumberAbove(t *testing.T) {
 		t.Errorf("n(>hi) = %v, want 0", got)
 	}
 }
+
+// TestPublishedSlopes checks the slopes and break masses against
+// testdata/population_values_imf.tsv: Salpeter 1955 alpha = 2.35 (row
+// marked "found"), Kroupa 2001 break masses 0.08 and 0.5 Msun (abstract,
+// "found") and alpha0..alpha3 = 0.3, 1.3, 2.3, 2.3 (eq. 2, rows marked "from
+// memory"). Exact: digits as printed. It also checks that the fitted
+// functions use them (density ratios inside each segment).
+func TestPublishedSlopes(t *testing.T) {
+	t.Parallel()
+	ref := map[string]string{}
+	for _, row := range readTSV(t, "population_values_imf.tsv") {
+		ref[row[0]] = row[1]
+	}
+	for _, c := range []struct {
+		key string
+		got float64
+	}{
+		{"salpeter_slope_alpha", imf.SalpeterSlope},
+		{"kroupa_alpha0", imf.KroupaAlpha0},
+		{"kroupa_alpha1", imf.KroupaAlpha1},
+		{"kroupa_alpha2", imf.KroupaAlpha2},
+		{"kroupa_alpha3", imf.KroupaAlpha2}, // same slope above 1 Msun
+	} {
+		if want := parseF(t, ref[c.key]); c.got != want {
+			t.Errorf("%s = %g, reference %g", c.key, c.got, want)
+		}
+	}
+	if ref["kroupa_break_masses"] != "0.08; 0.5" || imf.KroupaBreak1Msun != 0.08 || imf.KroupaBreak2Msun != 0.5 {
+		t.Errorf("Kroupa breaks %g, %g; reference %q", imf.KroupaBreak1Msun, imf.KroupaBreak2Msun, ref["kroupa_break_masses"])
+	}
+	k := mustNew(t, imf.Spec{Kind: "kroupa", LoMsun: 0.01, HiMsun: 150})
+	for _, c := range []struct{ m1, m2, alpha float64 }{{0.01, 0.07, 0.3}, {0.1, 0.4, 1.3}, {0.6, 0.9, 2.3}, {2, 120, 2.3}} {
+		got := -math.Log(k.Prob(c.m2)/k.Prob(c.m1)) / math.Log(c.m2/c.m1)
+		if !scalar.EqualWithinAbs(got, c.alpha, 1e-12) {
+			t.Errorf("Kroupa local slope on [%g, %g] = %.15g, want %g", c.m1, c.m2, got, c.alpha)
+		}
+	}
+	for _, kind := range imf.Kinds() {
+		spec := imf.Spec{Kind: kind}
+		switch kind {
+		case "broken_power_law":
+			spec.Slopes = []float64{2}
+		case "table":
+			spec.TablePath = filepath.Join("testdata", "table_invented.txt")
+		}
+		if f := mustNew(t, spec); f.Name() != kind {
+			t.Errorf("Name() = %q for kind %q", f.Name(), kind)
+		}
+	}
+}
