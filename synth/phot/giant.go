@@ -106,7 +106,11 @@ func alonsoPair(f1, f2 alonsoFit, teffK, feh float64) (float64, error) {
 }
 
 // giantBV returns the intrinsic B−V of a giant (Alonso et al. 1999).
-func giantBV(teffK, feh float64) (float64, error) { return alonsoPair(alonsoBV1, alonsoBV2, teffK, feh) }
+func giantBV(teffK, feh float64) (float64, error) {
+	return alonsoPair(alonsoBV1, alonsoBV2, teffK, feh)
+}
 
 // giantVK returns the intrinsic V−K of a giant (Alonso et al. 1999).
-func giantVK(teffK, feh float64) (float64, error) { return alonsoPair(alonsoVK1, alonsoVK2, teffK, feh) }
+func giantVK(teffK, feh float64) (float64, error) {
+	return alonsoPair(alonsoVK1, alonsoVK2, teffK, feh)
+}

@@ -9,30 +9,32 @@ import (
 	"gonum.org/v1/gonum/interp"
 )
 
-// TableStepLogTeffDex is the log10 Teff step of the regular table a
-// Photometer precomputes from its grid. Along Teff the grid is interpolated
-// with a monotone piecewise cubic (Fritsch & Butland 1984) in log Teff; the
-// table samples that curve every 0.002 dex (0.46 % in Teff) and is read with
-// linear interpolation, which reproduces the cubic to about 1e-4 mag (half the
-// step squared times the curvature; checked in the tests against the cubic
-// itself).
-const TableStepLogTeffDex = 0.002
+// accelBinDex is the bin width in log10 Teff of the lookup accelerator that
+// maps log Teff to its grid interval; it must be below the smallest node
+// spacing for the one-step search in BCs to suffice (checked at construction;
+// otherwise the search walks further, still correct).
+const accelBinDex = 0.0005
 
 // Photometer turns (Teff, log g, [Fe/H], L) into absolute magnitudes in an
 // ordered list of bands, using a bolometric-correction grid. It is built once
-// (NewPhotometer precomputes a table) and is then safe for concurrent use;
-// AbsMags does not allocate.
+// (NewPhotometer precomputes the interpolation coefficients) and is then safe
+// for concurrent use; AbsMags does not allocate.
+//
+// Interpolation: along Teff, a monotone piecewise cubic in log Teff through the
+// nodes of each (log g, [Fe/H]) row (Fritsch & Butland 1984, as in gonum's
+// interp.FritschButland: no overshoot between nodes, exact at nodes); linear in
+// log g and in [Fe/H] between rows.
 type Photometer struct {
 	bands []Band
 	nb    int
-	// table axes
-	lt0, dlt float64 // first log Teff and step
-	nT       int     // number of log Teff samples
-	logg     []float64
-	feh      []float64
-	tab      []float64 // [((f*nG+j)*nT+i)*nb+k], BC in mag
-	cellQ    []Quality // [(f*nG+j)*(nT-1)+i]: worst node quality of the cell's grid interval
-	grid     *Grid
+	ltg   []float64 // grid log Teff nodes
+	logg  []float64
+	feh   []float64
+	// coef[(((f*nG+j)*(nT-1)+m)*nb+k)*4+c]: cubic coefficients in (log T − ltg[m])
+	coef  []float64
+	cellQ []Quality // [(f*nG+j)*(nT-1)+m]: worst quality of the two nodes of interval m
+	accel []int32   // accel[int((lt-ltg[0])/accelBinDex)] = interval containing the bin start
+	grid  *Grid
 }
 
 // NewPhotometer binds grid g to the named bands, in order (nil or empty: every
@@ -77,45 +79,46 @@ func NewPhotometer(g *Grid, bands []string) (*Photometer, error) {
 	nG, nF, nTg := len(g.loggCgs), len(g.feh), len(g.teffK)
 	p.logg = append([]float64(nil), g.loggCgs...)
 	p.feh = append([]float64(nil), g.feh...)
-	ltg := make([]float64, nTg)
+	p.ltg = make([]float64, nTg)
 	for i, t := range g.teffK {
-		ltg[i] = math.Log10(t)
+		p.ltg[i] = math.Log10(t)
 	}
-	p.lt0 = ltg[0]
-	span := ltg[nTg-1] - ltg[0]
-	p.nT = int(math.Ceil(span/TableStepLogTeffDex)) + 1
-	p.dlt = span / float64(p.nT-1)
-	p.tab = make([]float64, nF*nG*p.nT*p.nb)
-	p.cellQ = make([]Quality, nF*nG*(p.nT-1))
+	ni := nTg - 1
+	p.coef = make([]float64, nF*nG*ni*p.nb*4)
+	p.cellQ = make([]Quality, nF*nG*ni)
 	var mask uint64
 	for _, k := range cols {
 		mask |= 1 << uint(k)
 	}
 	ys := make([]float64, nTg)
+	ds := make([]float64, nTg)
 	var fb interp.FritschButland
 	for f := 0; f < nF; f++ {
 		for j := 0; j < nG; j++ {
-			base := (f*nG + j) * p.nT
+			row := f*nG + j
 			for kk, k := range cols {
 				for it := 0; it < nTg; it++ {
 					ys[it] = g.bc[g.nodeIndex(it, j, f)*len(g.bands)+k]
 				}
-				fb.Fit(ltg, ys)
-				for i := 0; i < p.nT; i++ {
-					lt := p.lt0 + float64(i)*p.dlt
-					if i == p.nT-1 {
-						lt = ltg[nTg-1]
-					}
-					p.tab[(base+i)*p.nb+kk] = fb.Predict(lt)
+				fb.Fit(p.ltg, ys)
+				for it := 0; it < nTg; it++ {
+					ds[it] = fb.PredictDerivative(p.ltg[it])
+				}
+				// the derivative at the last node from the left interval
+				ds[nTg-1] = fb.PredictDerivative(p.ltg[nTg-1])
+				for m := 0; m < ni; m++ {
+					// cubic Hermite coefficients on [x_m, x_m+1] (value and slope at both ends)
+					h := p.ltg[m+1] - p.ltg[m]
+					s := (ys[m+1] - ys[m]) / h
+					d0, d1 := ds[m], ds[m+1]
+					c := p.coef[((row*ni+m)*p.nb+kk)*4:]
+					c[0] = ys[m]
+					c[1] = d0
+					c[2] = (3*s - 2*d0 - d1) / h
+					c[3] = (d0 + d1 - 2*s) / (h * h)
 				}
 			}
-			// cell qualities: worst over the two grid nodes bracketing the cell
-			m := 0
-			for i := 0; i < p.nT-1; i++ {
-				mid := p.lt0 + (float64(i)+0.5)*p.dlt
-				for m < nTg-2 && ltg[m+1] <= mid {
-					m++
-				}
+			for m := 0; m < ni; m++ {
 				q := QualityEmpirical
 				for _, it := range [2]int{m, m + 1} {
 					n := g.nodeIndex(it, j, f)
@@ -125,9 +128,19 @@ func NewPhotometer(g *Grid, bands []string) (*Photometer, error) {
 					}
 					q = max(q, nq)
 				}
-				p.cellQ[(f*nG+j)*(p.nT-1)+i] = q
+				p.cellQ[row*ni+m] = q
 			}
 		}
+	}
+	nBins := int((p.ltg[nTg-1]-p.ltg[0])/accelBinDex) + 1
+	p.accel = make([]int32, nBins)
+	m := 0
+	for bin := range p.accel {
+		x := p.ltg[0] + float64(bin)*accelBinDex
+		for m < ni-1 && p.ltg[m+1] <= x {
+			m++
+		}
+		p.accel[bin] = int32(m)
 	}
 	return p, nil
 }
@@ -145,7 +158,7 @@ func (p *Photometer) Grid() *Grid { return p.grid }
 // every value is accepted and gives that node's BCs (the built-in grid has one
 // [Fe/H] = 0 slice, so it ignores [Fe/H]).
 func (p *Photometer) Domain() (teffLoK, teffHiK, loggLo, loggHi, fehLo, fehHi float64) {
-	return math.Pow(10, p.lt0), math.Pow(10, p.lt0+float64(p.nT-1)*p.dlt),
+	return p.grid.teffK[0], p.grid.teffK[len(p.grid.teffK)-1],
 		p.logg[0], p.logg[len(p.logg)-1], p.feh[0], p.feh[len(p.feh)-1]
 }
 
@@ -165,8 +178,8 @@ func bracket(ax []float64, x float64) (int, float64, bool) {
 
 // BCs writes the bolometric corrections BC_X = M_bol − M_X (mag) of the
 // photometer's bands at (teffK, loggCgs, feh) into dst and returns their
-// quality. Interpolation: monotone cubic in log Teff (tabulated, see
-// TableStepLogTeffDex), linear in log g and in [Fe/H]. Outside the grid's
+// quality. Interpolation: monotone cubic in log Teff, linear in log g and in
+// [Fe/H] (see Photometer). Outside the grid's
 // domain (see Domain) or for NaN input, dst is filled with NaN and
 // QualityOutsideGrid is returned: no extrapolation. It panics if
 // len(dst) < len(p.Bands()) (a caller bug). It does not allocate.
@@ -177,15 +190,20 @@ func (p *Photometer) BCs(teffK, loggCgs, feh float64, dst []float64) Quality {
 	}
 	dst = dst[:nb]
 	lt := math.Log10(teffK)
-	x := (lt - p.lt0) / p.dlt
-	if !(x >= 0 && x <= float64(p.nT-1)) {
+	ltg := p.ltg
+	ni := len(ltg) - 1
+	if !(lt >= ltg[0] && lt <= ltg[ni]) {
 		return fillNaN(dst, QualityOutsideGrid)
 	}
-	i := int(x)
-	if i >= p.nT-1 {
-		i = p.nT - 2
+	bin := int((lt - ltg[0]) / accelBinDex)
+	if bin >= len(p.accel) {
+		bin = len(p.accel) - 1
 	}
-	fx := x - float64(i)
+	m := int(p.accel[bin])
+	for m < ni-1 && ltg[m+1] < lt {
+		m++
+	}
+	dx := lt - ltg[m]
 	nG := len(p.logg)
 	j, fy := 0, 0.0
 	if nG > 1 {
@@ -209,38 +227,18 @@ func (p *Photometer) BCs(teffK, loggCgs, feh float64, dst []float64) Quality {
 	if nG == 1 {
 		jn = j
 	}
-	w00 := (1 - fx) * (1 - fy)
-	w10 := fx * (1 - fy)
-	w01 := (1 - fx) * fy
-	w11 := fx * fy
 	q := QualityEmpirical
-	nc := p.nT - 1
-	tab := p.tab
-	// first [Fe/H] slice (the only one for a single-slice grid)
-	wf := 1 - ff
-	r0 := ((f*nG+j)*p.nT + i) * nb
-	r1 := ((f*nG+jn)*p.nT + i) * nb
-	a00, a10 := tab[r0:r0+nb], tab[r0+nb:r0+2*nb]
-	a01, a11 := tab[r1:r1+nb], tab[r1+nb:r1+2*nb]
-	for k := range dst {
-		dst[k] = wf * (w00*a00[k] + w10*a10[k] + w01*a01[k] + w11*a11[k])
-	}
-	q = max(q, p.cellQ[(f*nG+j)*nc+i])
+	p.slice(f, j, jn, m, dx, fy, 1-ff, dst, false)
+	q = max(q, p.cellQ[(f*nG+j)*ni+m])
 	if fy > 0 {
-		q = max(q, p.cellQ[(f*nG+jn)*nc+i])
+		q = max(q, p.cellQ[(f*nG+jn)*ni+m])
 	}
-	if ff > 0 { // second slice
+	if ff > 0 { // second [Fe/H] slice
 		f1 := f + 1
-		r0 = ((f1*nG+j)*p.nT + i) * nb
-		r1 = ((f1*nG+jn)*p.nT + i) * nb
-		a00, a10 = tab[r0:r0+nb], tab[r0+nb:r0+2*nb]
-		a01, a11 = tab[r1:r1+nb], tab[r1+nb:r1+2*nb]
-		for k := range dst {
-			dst[k] += ff * (w00*a00[k] + w10*a10[k] + w01*a01[k] + w11*a11[k])
-		}
-		q = max(q, p.cellQ[(f1*nG+j)*nc+i])
+		p.slice(f1, j, jn, m, dx, fy, ff, dst, true)
+		q = max(q, p.cellQ[(f1*nG+j)*ni+m])
 		if fy > 0 {
-			q = max(q, p.cellQ[(f1*nG+jn)*nc+i])
+			q = max(q, p.cellQ[(f1*nG+jn)*ni+m])
 		}
 	}
 	return q
@@ -274,6 +272,30 @@ func (p *Photometer) AbsMags(teffK, loggCgs, feh, lumLsun float64, dst []float64
 		dst[k] = mbol - dst[k]
 	}
 	return q
+}
+
+// slice evaluates the cubics of rows (f, j) and (f, jn) in interval m at
+// offset dx, blends them linearly with weight fy on jn, and writes (or, with
+// add, adds) wf times the result into dst.
+func (p *Photometer) slice(f, j, jn, m int, dx, fy, wf float64, dst []float64, add bool) {
+	nb := p.nb
+	ni := len(p.ltg) - 1
+	nG := len(p.logg)
+	c0 := p.coef[((f*nG+j)*ni+m)*nb*4:][:nb*4]
+	c1 := p.coef[((f*nG+jn)*ni+m)*nb*4:][:nb*4]
+	w0, w1 := wf*(1-fy), wf*fy
+	for k := range dst[:nb] {
+		a := c0[4*k : 4*k+4 : 4*k+4]
+		b := c1[4*k : 4*k+4 : 4*k+4]
+		v0 := ((a[3]*dx+a[2])*dx+a[1])*dx + a[0]
+		v1 := ((b[3]*dx+b[2])*dx+b[1])*dx + b[0]
+		v := w0*v0 + w1*v1
+		if add {
+			dst[k] += v
+		} else {
+			dst[k] = v
+		}
+	}
 }
 
 // lSunOverL0 is L_sun/L0 of IAU 2015 Resolutions B3 and B2.
