@@ -42,7 +42,10 @@
 // it to none to let the S/N threshold alone define the limit. DetectionRule
 // combines the per-band flags: all_of, any_of or at_least k of a band list.
 // BandSpec.DetectionProbability gives the probability of the whole per-band
-// selection, for expected (as opposed to realised) counts.
+// selection, for expected (as opposed to realised) counts; MagAtProbability
+// inverts it, and ExactFaintLimit gives the magnitude beyond which a detection
+// is impossible (when one exists: a completeness table reaching 0, or an S/N
+// threshold above the largest deviate Observe can draw, MaxNormalDeviate ≈ 8.29).
 //
 // # Randomness
 //
