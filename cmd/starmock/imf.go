@@ -154,6 +154,14 @@ func newIMFCmd(stdout, stderr io.Writer) *cobra.Command {
 
 func runIMF(ctx context.Context, o *imfOptions, stdout, stderr io.Writer) error {
 	spec := imf.Spec{Kind: o.form.value, LoMsun: o.loMsun, HiMsun: o.hiMsun, Breaks: o.breaks, Slopes: o.slopes, TablePath: o.tablePath}
+	switch {
+	case o.form.value != imf.KindBrokenPowerLaw && (len(o.breaks) > 0 || len(o.slopes) > 0):
+		return usageErrorf("--breaks-msun and --slopes are only used with --form %s, not --form %s", imf.KindBrokenPowerLaw, o.form.value)
+	case o.form.value != imf.KindTable && o.tablePath != "":
+		return usageErrorf("--table is only used with --form %s, not --form %s", imf.KindTable, o.form.value)
+	case o.form.value == imf.KindTable && o.tablePath == "":
+		return usageErrorf("--form %s needs --table FILE (rows of mass_msun, dn_dm)", imf.KindTable)
+	}
 	f, err := imf.New(spec)
 	if err != nil {
 		return asUsage(fmt.Errorf("--form %s: %w", o.form.value, err))

@@ -175,7 +175,9 @@ func TestIMFCommandErrors(t *testing.T) {
 		{"negative_lo", []string{"imf", "--form", "salpeter", "--lo-msun", "-1"}, []string{"lo_msun", "-1 Msun is not a positive finite mass"}},
 		{"hi_out_of_range", []string{"imf", "--form", "chabrier_single", "--hi-msun", "200"}, []string{"200 Msun is outside the supported range [0.01, 150] Msun"}},
 		{"breaks_not_increasing", []string{"imf", "--form", "broken_power_law", "--breaks-msun", "1,0.5", "--slopes", "1,2,3"}, []string{"strictly increasing"}},
-		{"slopes_on_kroupa", []string{"imf", "--slopes", "2"}, []string{"only used by kind \"broken_power_law\""}},
+		{"slopes_on_kroupa", []string{"imf", "--slopes", "2"}, []string{"--breaks-msun and --slopes are only used with --form broken_power_law, not --form kroupa"}},
+		{"table_form_without_file", []string{"imf", "--form", "table"}, []string{"--form table needs --table FILE"}},
+		{"slope_count", []string{"imf", "--form", "broken_power_law", "--breaks-msun", "0.5", "--slopes", "2"}, []string{"got 1 slopes for 1 breaks"}},
 		{"nan_bin", []string{"imf", "--bins-msun", "0.1,NaN"}, []string{"--bins-msun edge 2: NaN Msun"}},
 		{"bins_decreasing", []string{"imf", "--bins-msun", "1,0.5"}, []string{"--bins-msun edges must be strictly increasing"}},
 		{"above_zero", []string{"imf", "--above-msun", "0"}, []string{"--above-msun: 0 Msun"}},
@@ -185,7 +187,7 @@ func TestIMFCommandErrors(t *testing.T) {
 		{"format_with_sample", []string{"imf", "--sample", "3", "--format", "json"}, []string{"apply to the properties output"}},
 		{"table_non_monotonic", []string{"imf", "--form", "table", "--table", badTable}, []string{badTable + ":4:", "strictly increasing"}},
 		{"table_missing", []string{"imf", "--form", "table", "--table", filepath.Join(dir, "none.txt")}, []string{"none.txt", "no such file"}},
-		{"table_flag_without_form", []string{"imf", "--table", badTable}, []string{"table_path is only used by kind \"table\""}},
+		{"table_flag_without_form", []string{"imf", "--table", badTable}, []string{"--table is only used with --form table, not --form kroupa"}},
 		{"positional_arg", []string{"imf", "kroupa"}, []string{"unknown command"}},
 	} {
 		t.Run(c.name, func(t *testing.T) {
