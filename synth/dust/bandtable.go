@@ -49,8 +49,9 @@ type BandTable struct {
 // Errors: a malformed passband (ErrPassband), a curve with throughput outside
 // the law's range or a pivot outside it (ErrWavelengthRange), a pivot-only
 // band without a pivot. Panics if pivotsAA is neither nil nor len(pbs) long
-// (a programming error). Building takes of the order of 10–100 ms for 16
-// bands (spread over GOMAXPROCS goroutines) and 130 kB per band.
+// (a programming error). Building takes about 0.3 s for the 16 standard
+// bands on a 2-core machine (spread over GOMAXPROCS goroutines) and 130 kB
+// per band.
 func NewBandTable(law Law, pbs []Passband, pivotsAA []float64) (*BandTable, error) {
 	if pivotsAA != nil && len(pivotsAA) != len(pbs) {
 		panic(fmt.Sprintf("dust: NewBandTable: %d pivots for %d passbands", len(pivotsAA), len(pbs)))

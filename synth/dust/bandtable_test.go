@@ -43,6 +43,23 @@ func TestBandTableNodes(t *testing.T) {
 	}
 }
 
+// TestBandTableExactIsBandRatio: the table's exact path is BandRatio of a
+// blackbody (consts.PlanckLambda) through the same passbands, to 1e-12.
+func TestBandTableExactIsBandRatio(t *testing.T) {
+	t.Parallel()
+	bt := table16(t, NameOD94)
+	dst := make([]float64, bt.NumBands())
+	for _, c := range []struct{ teff, av float64 }{{2500, 0}, {5772, 0.3}, {40000, 12}} {
+		bt.RatiosExact(c.teff, c.av, dst)
+		for b, name := range bandNames16 {
+			want, err := BandRatio(bt.Law(), loadPassband(t, name), planck(c.teff), c.av)
+			if err != nil || math.Abs(dst[b]-want) > 1e-12 {
+				t.Errorf("%s %g K A_V=%g: table exact %.15g, BandRatio %.15g (%v)", name, c.teff, c.av, dst[b], want, err)
+			}
+		}
+	}
+}
+
 // TestBandTableInterpolationError: the bilinear interpolation error against
 // the exact value, at 1500 seeded random points uniform in (log Teff, A_V)
 // over the grid, for all 16 bands and the three laws. The bar, 5e-4 in

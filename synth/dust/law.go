@@ -86,7 +86,7 @@ func NewLaw(name string, rv float64) (Law, error) {
 
 func checkRV(rv float64) error {
 	if !(rv >= MinRV && rv <= MaxRV) { // also rejects NaN
-		return fmt.Errorf("dust: r_v %g: %w [%g, %g]", rv, ErrRVRange, MinRV, MaxRV)
+		return fmt.Errorf("dust: %w: got %g, allowed [%g, %g]", ErrRVRange, rv, MinRV, MaxRV)
 	}
 	return nil
 }
@@ -134,8 +134,8 @@ func CheckAV(avMag float64) error {
 
 // rangeError builds the error for a wavelength outside [minAA, maxAA].
 func rangeError(law string, lambdaAA, minAA, maxAA float64) error {
-	return fmt.Errorf("dust: %s: wavelength %g Å: %w [%g, %g] Å", law, lambdaAA,
-		ErrWavelengthRange, minAA, maxAA)
+	return fmt.Errorf("dust: %s: %w: got %g Å, allowed [%.6g, %.6g] Å", law, ErrWavelengthRange,
+		lambdaAA, minAA, maxAA)
 }
 
 // PivotRatio returns A_X/A_V for a band known only by its pivot wavelength in
