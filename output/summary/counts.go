@@ -255,6 +255,9 @@ type HistJSON struct {
 	Underflow      int64     `json:"underflow"`
 	Overflow       int64     `json:"overflow"`
 	NaN            int64     `json:"nan"`
+	ExpUnderflow   float64   `json:"expected_underflow"`
+	ExpOverflow    float64   `json:"expected_overflow"`
+	ExpNaN         float64   `json:"expected_nan"`
 }
 
 // StarCountsJSON is the document written by StarCounts.WriteJSON.
@@ -271,7 +274,8 @@ func (s *StarCounts) JSON() StarCountsJSON {
 	for _, k := range s.Keys() {
 		h, _ := s.Get(k)
 		hj := HistJSON{Band: k.Band, Component: k.Component, Stage: k.Stage,
-			Underflow: h.Underflow(), Overflow: h.Overflow(), NaN: h.NaN()}
+			Underflow: h.Underflow(), Overflow: h.Overflow(), NaN: h.NaN(),
+			ExpUnderflow: h.ExpectedUnderflow(), ExpOverflow: h.ExpectedOverflow(), ExpNaN: h.ExpectedNaN()}
 		for i := 0; i < s.bins.N; i++ {
 			hj.Count = append(hj.Count, h.Count(i))
 			hj.CountErr = append(hj.CountErr, h.CountErr(i))

@@ -135,6 +135,8 @@ type HessJSON struct {
 	Expected  [][]float64 `json:"expected"`
 	Outside   int64       `json:"outside"`
 	NaN       int64       `json:"nan"`
+	ExpOut    float64     `json:"expected_outside"`
+	ExpNaN    float64     `json:"expected_nan"`
 }
 
 // HessSetJSON is the document written by HessSet.WriteJSON.
@@ -153,7 +155,7 @@ func (s *HessSet) WriteJSON(w io.Writer) error {
 		ColourBinning: BinningJSON{s.x.Lo, s.x.Hi, s.x.N}, MagBinning: BinningJSON{s.y.Lo, s.y.Hi, s.y.N}}
 	for _, c := range append([]string{All}, s.Components()...) {
 		h := s.Get(c)
-		d := HessJSON{Component: c, Outside: h.Outside(), NaN: h.NaN()}
+		d := HessJSON{Component: c, Outside: h.Outside(), NaN: h.NaN(), ExpOut: h.ExpectedOutside(), ExpNaN: h.ExpectedNaN()}
 		for iy := 0; iy < s.y.N; iy++ {
 			rc, re := make([]int64, s.x.N), make([]float64, s.x.N)
 			for ix := 0; ix < s.x.N; ix++ {

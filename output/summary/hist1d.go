@@ -23,6 +23,7 @@ type Hist1D struct {
 	counts []int64    // slots: 0 underflow, 1..N bins, N+1 overflow
 	nan    int64      // NaN values offered to Add
 	w, w2  []exactSum // weight and squared-weight sums per slot
+	wNaN   exactSum   // weights offered with a NaN value
 }
 
 // NewHist1D returns an empty histogram on the binning b (from NewBinning).
@@ -47,12 +48,13 @@ func (h *Hist1D) Add(x float64) {
 }
 
 // AddExpected adds weight w (expected number of stars, ≥ 0) at x. It panics on
-// a weight that is negative, NaN or above MaxWeight (a caller bug). A NaN x is
-// dropped from the weight sums (counted in NaN only by Add). No allocation.
+// a weight that is negative, NaN or above MaxWeight (a caller bug). The weight
+// of a NaN x goes to ExpectedNaN. No allocation.
 func (h *Hist1D) AddExpected(x, w float64) {
 	checkWeight(w)
 	s := h.bins.slot(x)
 	if s < 0 {
+		h.wNaN.add(w)
 		return
 	}
 	h.w[s].add(w)
@@ -70,6 +72,7 @@ func (h *Hist1D) Merge(o *Hist1D) error {
 		h.w2[i].merge(o.w2[i])
 	}
 	h.nan += o.nan
+	h.wNaN.merge(o.wNaN)
 	return nil
 }
 
@@ -102,6 +105,15 @@ func (h *Hist1D) Overflow() int64 { return h.counts[h.bins.N+1] }
 // NaN returns the number of NaN values given to Add.
 func (h *Hist1D) NaN() int64 { return h.nan }
 
+// ExpectedNaN returns the sum of the weights given to AddExpected with a NaN value.
+func (h *Hist1D) ExpectedNaN() float64 { return h.wNaN.value() }
+
+// ExpectedUnderflow returns the expected count below Lo.
+func (h *Hist1D) ExpectedUnderflow() float64 { return h.w[0].value() }
+
+// ExpectedOverflow returns the expected count at or above Hi.
+func (h *Hist1D) ExpectedOverflow() float64 { return h.w[h.bins.N+1].value() }
+
 // Total returns the realised count over all slots, NaN excluded.
 func (h *Hist1D) Total() int64 {
 	var t int64
@@ -111,7 +123,7 @@ func (h *Hist1D) Total() int64 {
 	return t
 }
 
-// ExpectedTotal returns the expected count over all slots.
+// ExpectedTotal returns the expected count over all slots, NaN excluded.
 func (h *Hist1D) ExpectedTotal() float64 {
 	var s exactSum
 	for _, w := range h.w {

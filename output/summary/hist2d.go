@@ -16,6 +16,7 @@ type Hist2D struct {
 	outside int64
 	nan     int64
 	wOut    exactSum
+	wNaN    exactSum
 }
 
 // NewHist2D returns an empty histogram on the binnings x and y.
@@ -55,12 +56,14 @@ func (h *Hist2D) Add(x, y float64) {
 }
 
 // AddExpected adds weight w ≥ 0 at (x, y); panics on a negative, NaN or too
-// large weight (a caller bug). NaN coordinates are dropped.
+// large weight (a caller bug). Weights outside the grid go to
+// ExpectedOutside, those with a NaN coordinate to ExpectedNaN.
 func (h *Hist2D) AddExpected(x, y, w float64) {
 	checkWeight(w)
 	c, ok := h.cell(x, y)
 	switch {
 	case !ok:
+		h.wNaN.add(w)
 	case c < 0:
 		h.wOut.add(w)
 	default:
@@ -82,6 +85,7 @@ func (h *Hist2D) Merge(o *Hist2D) error {
 	h.outside += o.outside
 	h.nan += o.nan
 	h.wOut.merge(o.wOut)
+	h.wNaN.merge(o.wNaN)
 	return nil
 }
 
@@ -114,6 +118,12 @@ func (h *Hist2D) Outside() int64 { return h.outside }
 
 // NaN returns the number of points with a NaN coordinate.
 func (h *Hist2D) NaN() int64 { return h.nan }
+
+// ExpectedOutside returns the expected count outside the grid.
+func (h *Hist2D) ExpectedOutside() float64 { return h.wOut.value() }
+
+// ExpectedNaN returns the weights given with a NaN coordinate.
+func (h *Hist2D) ExpectedNaN() float64 { return h.wNaN.value() }
 
 // Total returns the realised count inside the grid.
 func (h *Hist2D) Total() int64 {

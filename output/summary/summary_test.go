@@ -92,6 +92,11 @@ func TestHist1D(t *testing.T) {
 	if e, ee := h.Expected(0), h.ExpectedErr(0); e != 0.75 || math.Abs(ee-math.Sqrt(0.3125)) > 1e-16 {
 		t.Errorf("expected %v ± %v, want 0.75 ± sqrt(0.3125)", e, ee)
 	}
+	h.AddExpected(math.NaN(), 2)
+	h.AddExpected(30, 4)
+	if h.ExpectedNaN() != 2 || h.ExpectedOverflow() != 4 || h.ExpectedUnderflow() != 0 || h.ExpectedTotal() != 4.75 {
+		t.Errorf("expected NaN %v over %v under %v total %v", h.ExpectedNaN(), h.ExpectedOverflow(), h.ExpectedUnderflow(), h.ExpectedTotal())
+	}
 	c, ce, _, _ := h.Cumulative()
 	// N(<11) = underflow 2 + bin 0 (2) = 4; N(<20) = 2 + 2 + 2 + 1 = 7
 	if c[0] != 4 || c[1] != 6 || c[9] != 7 || ce[0] != 2 {
