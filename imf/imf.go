@@ -127,10 +127,10 @@ func specErrorf(format string, a ...any) error {
 // outside the supported range, lo >= hi, or breaks/slopes are malformed.
 func New(spec Spec) (IMF, error) {
 	if spec.Kind != KindBrokenPowerLaw && (len(spec.Breaks) > 0 || len(spec.Slopes) > 0) {
-		return nil, specErrorf("breaks and slopes are only used by kind %q, not %q", KindBrokenPowerLaw, spec.Kind)
+		return nil, specErrorf("breaks_msun and slopes are only used by kind %q, not %q", KindBrokenPowerLaw, spec.Kind)
 	}
 	if spec.Kind != KindTable && spec.TablePath != "" {
-		return nil, specErrorf("table_path is only used by kind %q, not %q", KindTable, spec.Kind)
+		return nil, specErrorf("a table file (%q) is only used by kind %q, not %q", spec.TablePath, KindTable, spec.Kind)
 	}
 	switch spec.Kind {
 	case KindSalpeter:
@@ -145,7 +145,7 @@ func New(spec Spec) (IMF, error) {
 		return NewBrokenPowerLaw(spec.Breaks, spec.Slopes, spec.LoMsun, spec.HiMsun)
 	case KindTable:
 		if spec.TablePath == "" {
-			return nil, specErrorf("kind %q needs table_path (a file of mass, dN/dm rows)", KindTable)
+			return nil, specErrorf("kind %q needs a table file of mass_msun, dn_dm rows", KindTable)
 		}
 		return LoadTable(spec.TablePath, spec.LoMsun, spec.HiMsun)
 	}
@@ -168,7 +168,7 @@ func resolveLimits(kind string, loMsun, hiMsun, defLo, defHi, minMsun, maxMsun f
 	for _, v := range []struct {
 		name string
 		val  float64
-	}{{"lo_msun", loMsun}, {"hi_msun", hiMsun}} {
+	}{{"min_mass_msun", loMsun}, {"max_mass_msun", hiMsun}} {
 		if math.IsNaN(v.val) || math.IsInf(v.val, 0) || v.val <= 0 {
 			return 0, 0, specErrorf("%s for %s: %g Msun is not a positive finite mass", v.name, kind, v.val)
 		}
@@ -177,7 +177,7 @@ func resolveLimits(kind string, loMsun, hiMsun, defLo, defHi, minMsun, maxMsun f
 		}
 	}
 	if loMsun >= hiMsun {
-		return 0, 0, specErrorf("lo_msun %g Msun must be below hi_msun %g Msun for %s", loMsun, hiMsun, kind)
+		return 0, 0, specErrorf("min_mass_msun %g Msun must be below max_mass_msun %g Msun for %s", loMsun, hiMsun, kind)
 	}
 	return loMsun, hiMsun, nil
 }
@@ -240,17 +240,32 @@ func SampleTotalMass(f IMF, totalMsun float64, r *rand.Rand, dst []float64) ([]f
 	}
 	dst = dst[:0]
 	sum := 0.0
-	for sum < totalMsun {
+	for {
 		m := f.Rand(r)
-		if sum+m >= totalMsun {
-			if sum+m-totalMsun <= totalMsun-sum { // stop nearest: keep if closer
-				dst = append(dst, m)
-				sum += m
-			}
-			break
+		keep, stop := StopNearest(sum, m, totalMsun)
+		if keep {
+			dst = append(dst, m)
+			sum += m
 		}
-		dst = append(dst, m)
-		sum += m
+		if stop {
+			return dst, sum
+		}
 	}
-	return dst, sum
+}
+
+// StopNearest is the stopping rule of SampleTotalMass for one drawn star, for
+// callers that stream their own draws (for example chunk by chunk): given the
+// running sum sumMsun of the stars kept so far, the new star's massMsun and
+// the target totalMsun (all Msun), it reports whether to keep the star and
+// whether to stop:
+//
+//	sum + m <  total:                          keep, continue
+//	sum + m >= total, sum + m - total <= total - sum: keep, stop
+//	otherwise:                                 drop, stop
+func StopNearest(sumMsun, massMsun, totalMsun float64) (keep, stop bool) {
+	s := sumMsun + massMsun
+	if s < totalMsun {
+		return true, false
+	}
+	return s-totalMsun <= totalMsun-sumMsun, true // keep the crossing star if that is closer
 }

@@ -715,3 +715,26 @@ func TestPublishedSlopes(t *testing.T) {
 		}
 	}
 }
+
+// TestStopNearest checks the rule table of StopNearest (definition in its
+// doc; the tie goes to keeping the star).
+func TestStopNearest(t *testing.T) {
+	t.Parallel()
+	for _, c := range []struct {
+		sum, m, total float64
+		keep, stop    bool
+	}{
+		{0, 1, 10, true, false},
+		{9, 0.5, 10, true, false},
+		{9, 1, 10, true, true},      // lands exactly
+		{9.5, 1, 10, true, true},    // 0.5 over = 0.5 under: tie, keep
+		{9.6, 1, 10, false, true},   // 0.6 over > 0.4 under: drop
+		{9, 3, 10, false, true},     // 2 over > 1 under: drop
+		{9.9, 0.15, 10, true, true}, // 0.05 over < 0.1 under: keep
+	} {
+		keep, stop := imf.StopNearest(c.sum, c.m, c.total)
+		if keep != c.keep || stop != c.stop {
+			t.Errorf("StopNearest(%g, %g, %g) = %v, %v; want %v, %v", c.sum, c.m, c.total, keep, stop, c.keep, c.stop)
+		}
+	}
+}

@@ -338,15 +338,15 @@ func newBroken(kind string, breaksMsun, slopes []float64, loMsun, hiMsun, minMsu
 	}
 	for i, b := range breaksMsun {
 		if math.IsNaN(b) || math.IsInf(b, 0) || b <= 0 {
-			return nil, specErrorf("%s break %d: %g Msun is not a positive finite mass", kind, i+1, b)
+			return nil, specErrorf("%s breaks_msun[%d]: %g Msun is not a positive finite mass", kind, i, b)
 		}
 		if i > 0 && b <= breaksMsun[i-1] {
-			return nil, specErrorf("%s breaks must be strictly increasing: break %d is %g Msun after %g Msun", kind, i+1, b, breaksMsun[i-1])
+			return nil, specErrorf("%s breaks_msun must be strictly increasing: breaks_msun[%d] is %g Msun after %g Msun", kind, i, b, breaksMsun[i-1])
 		}
 	}
 	for i, a := range slopes {
 		if math.IsNaN(a) || math.IsInf(a, 0) {
-			return nil, specErrorf("%s slope %d: %g is not a finite number", kind, i+1, a)
+			return nil, specErrorf("%s slopes[%d]: %g is not a finite number", kind, i, a)
 		}
 	}
 	edges := []float64{lo}

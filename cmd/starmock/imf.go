@@ -48,13 +48,13 @@ Mass functions (--form):
   table             your own file of mass_msun, dn_dm rows (--table), interpolated
                     in log–log; '#' comments and one header line allowed
 
-Mass limits: --lo-msun and --hi-msun; 0 means the default, 0.1 and 100 Msun
+Mass limits: --min-mass-msun and --max-mass-msun; 0 means the default, 0.1 and 100 Msun
 for the published forms (which accept 0.01 to 150 Msun) and for
 broken_power_law, and the table's own first and last mass for a table.
 
 Examples:
   # mean mass and fractions of the Kroupa IMF between 0.08 and 150 Msun
-  starmock imf --form kroupa --lo-msun 0.08 --hi-msun 150
+  starmock imf --form kroupa --min-mass-msun 0.08 --max-mass-msun 150
 
   # the same as JSON, with your own bins and thresholds
   starmock imf --form chabrier_system --bins-msun 0.1,0.5,1,8,100 \
@@ -137,8 +137,8 @@ func newIMFCmd(stdout, stderr io.Writer) *cobra.Command {
 	}
 	f := cmd.Flags()
 	f.Var(&o.form, "form", "mass function: "+strings.Join(imf.Kinds(), ", "))
-	f.Float64Var(&o.loMsun, "lo-msun", 0, "lower mass limit in Msun (0 = default: 0.1, or the table's first mass)")
-	f.Float64Var(&o.hiMsun, "hi-msun", 0, "upper mass limit in Msun (0 = default: 100, or the table's last mass)")
+	f.Float64Var(&o.loMsun, "min-mass-msun", 0, "lower mass limit in Msun (0 = default: 0.1, or the table's first mass)")
+	f.Float64Var(&o.hiMsun, "max-mass-msun", 0, "upper mass limit in Msun (0 = default: 100, or the table's last mass)")
 	f.Float64SliceVar(&o.breaks, "breaks-msun", nil, "interior break masses in Msun of a broken_power_law, increasing (e.g. 0.08,0.5)")
 	f.Float64SliceVar(&o.slopes, "slopes", nil, "exponents alpha of dN/dm ∝ m^-alpha of a broken_power_law, one more than breaks (e.g. 0.3,1.3,2.3)")
 	f.StringVar(&o.tablePath, "table", "", "file of mass_msun, dn_dm rows for --form table")
@@ -222,8 +222,8 @@ func resolveBins(o *imfOptions, f imf.IMF) ([]float64, error) {
 // imfProperties is the properties report (also the JSON schema).
 type imfProperties struct {
 	Form         string          `json:"form"`
-	LoMsun       float64         `json:"lo_msun"`
-	HiMsun       float64         `json:"hi_msun"`
+	LoMsun       float64         `json:"min_mass_msun"`
+	HiMsun       float64         `json:"max_mass_msun"`
 	MeanMassMsun float64         `json:"mean_mass_msun"`
 	Bins         []imfBin        `json:"bins"`
 	NumberAbove  []imfNumberOver `json:"number_above_per_msun"`

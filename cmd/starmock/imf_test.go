@@ -58,7 +58,7 @@ func TestIMFCommandGolden(t *testing.T) {
 		args string
 	}{
 		{"kroupa_default_table", "imf"},
-		{"kroupa_wide_table", "imf --form kroupa --lo-msun 0.01 --hi-msun 150"},
+		{"kroupa_wide_table", "imf --form kroupa --min-mass-msun 0.01 --max-mass-msun 150"},
 		{"chabrier_system_json", "imf --form chabrier_system --bins-msun 0.1,0.5,1,8,100 --above-msun 0.8,8,20 --format json"},
 		{"broken_power_law_table", "imf --form broken_power_law --breaks-msun 0.5 --slopes 1.3,2.7 --above-msun 8"},
 		{"salpeter_sample_seed7", "imf --form salpeter --sample 5 --seed 7"},
@@ -78,7 +78,7 @@ func TestIMFCommandGolden(t *testing.T) {
 // package's values (which are tested against outside sources there), and
 // that the realised total reported for --total-msun is the sum of the CSV.
 func TestIMFCommandNumbers(t *testing.T) {
-	stdout, _, code := runIMFArgs(t, "imf", "--form", "kroupa", "--lo-msun", "0.08", "--bins-msun", "0.08,1,100", "--above-msun", "8", "--format", "json")
+	stdout, _, code := runIMFArgs(t, "imf", "--form", "kroupa", "--min-mass-msun", "0.08", "--bins-msun", "0.08,1,100", "--above-msun", "8", "--format", "json")
 	if code != 0 {
 		t.Fatalf("exit %d", code)
 	}
@@ -171,9 +171,9 @@ func TestIMFCommandErrors(t *testing.T) {
 	}{
 		{"unknown_form", []string{"imf", "--form", "kroupa01"}, []string{`"kroupa01" is not one of salpeter, kroupa`, "--form"}},
 		{"unknown_format", []string{"imf", "--format", "xml"}, []string{`"xml" is not one of table, json`}},
-		{"lo_not_below_hi", []string{"imf", "--lo-msun", "2", "--hi-msun", "2"}, []string{"lo_msun 2 Msun must be below hi_msun 2 Msun"}},
-		{"negative_lo", []string{"imf", "--form", "salpeter", "--lo-msun", "-1"}, []string{"lo_msun", "-1 Msun is not a positive finite mass"}},
-		{"hi_out_of_range", []string{"imf", "--form", "chabrier_single", "--hi-msun", "200"}, []string{"200 Msun is outside the supported range [0.01, 150] Msun"}},
+		{"lo_not_below_hi", []string{"imf", "--min-mass-msun", "2", "--max-mass-msun", "2"}, []string{"min_mass_msun 2 Msun must be below max_mass_msun 2 Msun"}},
+		{"negative_lo", []string{"imf", "--form", "salpeter", "--min-mass-msun", "-1"}, []string{"min_mass_msun", "-1 Msun is not a positive finite mass"}},
+		{"hi_out_of_range", []string{"imf", "--form", "chabrier_single", "--max-mass-msun", "200"}, []string{"200 Msun is outside the supported range [0.01, 150] Msun"}},
 		{"breaks_not_increasing", []string{"imf", "--form", "broken_power_law", "--breaks-msun", "1,0.5", "--slopes", "1,2,3"}, []string{"strictly increasing"}},
 		{"slopes_on_kroupa", []string{"imf", "--slopes", "2"}, []string{"--breaks-msun and --slopes are only used with --form broken_power_law, not --form kroupa"}},
 		{"table_form_without_file", []string{"imf", "--form", "table"}, []string{"--form table needs --table FILE"}},
