@@ -70,7 +70,9 @@ func logRange(g hessGrid) (lo, hi float64, ok bool) {
 	if hi == lo { // a single level: widen so the colour scale is defined
 		hi = lo + 1
 	}
-	return lo, hi, true
+	// start the scale 10% below the sparsest cell, so cells of one star are
+	// not drawn in the palette's near-white end
+	return lo - 0.1*(hi-lo), hi, true
 }
 
 func greyMap() palette.ColorMap {
