@@ -1,6 +1,7 @@
 package phot
 
 import (
+	"fmt"
 	"math"
 
 	"github.com/starmock/starmock/internal/consts"
@@ -78,4 +79,18 @@ func BlackbodyBC(b Band, teffK float64) (float64, error) {
 		return math.NaN(), err
 	}
 	return bc + off, nil
+}
+
+// BlackbodyFLambda returns the spectrum F_λ = π B_λ(T) in W m^-2 m^-1 of a
+// blackbody of temperature teffK (K), as a function of vacuum wavelength in Å:
+// the surface flux, i.e. the flux at distance d from a sphere of radius R times
+// (d/R)². For synthetic photometry and band extinction coefficients (the scale
+// cancels in both). It panics if teffK is not positive (a caller bug).
+func BlackbodyFLambda(teffK float64) func(lambdaAA float64) float64 {
+	if !(teffK > 0) {
+		panic(fmt.Sprintf("phot: BlackbodyFLambda: teffK = %v, want > 0", teffK))
+	}
+	return func(lambdaAA float64) float64 {
+		return math.Pi * consts.PlanckLambda(lambdaAA*1e-10, teffK)
+	}
 }
