@@ -109,6 +109,34 @@ func (e *enumValue) Set(s string) error {
 	return fmt.Errorf("%q is not one of %s", s, strings.Join(e.allowed, ", "))
 }
 
+// floatList is a pflag.Value for a comma-separated list of numbers, shown
+// in help as plain numbers ("1,8") rather than Go slice syntax.
+type floatList struct{ v *[]float64 }
+
+func (l floatList) Type() string { return "list" }
+func (l floatList) String() string {
+	if l.v == nil {
+		return ""
+	}
+	parts := make([]string, len(*l.v))
+	for i, x := range *l.v {
+		parts[i] = strconv.FormatFloat(x, 'g', -1, 64)
+	}
+	return strings.Join(parts, ",")
+}
+func (l floatList) Set(s string) error {
+	var out []float64
+	for _, f := range strings.Split(s, ",") {
+		x, err := strconv.ParseFloat(strings.TrimSpace(f), 64)
+		if err != nil {
+			return fmt.Errorf("%q is not a number", f)
+		}
+		out = append(out, x)
+	}
+	*l.v = out
+	return nil
+}
+
 // imfSeedStream is the second PCG word used with --seed, so that the mass
 // stream of this command is fixed and documented: PCG(seed, 0x696d66).
 const imfSeedStream = 0x696d66 // "imf"
@@ -139,11 +167,12 @@ func newIMFCmd(stdout, stderr io.Writer) *cobra.Command {
 	f.Var(&o.form, "form", "mass function: "+strings.Join(imf.Kinds(), ", "))
 	f.Float64Var(&o.loMsun, "min-mass-msun", 0, "lower mass limit in Msun (0 = default: 0.1, or the table's first mass)")
 	f.Float64Var(&o.hiMsun, "max-mass-msun", 0, "upper mass limit in Msun (0 = default: 100, or the table's last mass)")
-	f.Float64SliceVar(&o.breaks, "breaks-msun", nil, "interior break masses in Msun of a broken_power_law, increasing (e.g. 0.08,0.5)")
-	f.Float64SliceVar(&o.slopes, "slopes", nil, "exponents alpha of dN/dm ∝ m^-alpha of a broken_power_law, one more than breaks (e.g. 0.3,1.3,2.3)")
+	f.Var(floatList{&o.breaks}, "breaks-msun", "interior break masses in Msun of a broken_power_law, increasing (e.g. 0.08,0.5)")
+	f.Var(floatList{&o.slopes}, "slopes", "exponents alpha of dN/dm ∝ m^-alpha of a broken_power_law, one more than breaks (e.g. 0.3,1.3,2.3)")
 	f.StringVar(&o.tablePath, "table", "", "file of mass_msun, dn_dm rows for --form table")
-	f.Float64SliceVar(&o.binsMsun, "bins-msun", nil, "bin edges in Msun for number and mass fractions, increasing (default: lo, 0.5, 1, 8, hi, keeping those inside the limits)")
-	f.Float64SliceVar(&o.aboveMsun, "above-msun", []float64{1, 8}, "masses in Msun for the expected number of stars above them per Msun formed")
+	f.Var(floatList{&o.binsMsun}, "bins-msun", "bin edges in Msun for number and mass fractions, increasing (default: lo, 0.5, 1, 8, hi, keeping those inside the limits)")
+	o.aboveMsun = []float64{1, 8}
+	f.Var(floatList{&o.aboveMsun}, "above-msun", "masses in Msun for the expected number of stars above them per Msun formed")
 	f.Var(&o.format, "format", "properties output: table, json")
 	f.Int64Var(&o.sample, "sample", 0, "draw this many masses and write them as CSV")
 	f.Float64Var(&o.totalMsun, "total-msun", 0, fmt.Sprintf("draw stars up to this total mass in Msun (at most %g) and write them as CSV", float64(maxTotalMsun)))
