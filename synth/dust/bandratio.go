@@ -121,7 +121,7 @@ func newBandPlan(law Law, pb Passband) (*bandPlan, error) {
 		a, err := law.ALambdaOverAV(lam)
 		if err != nil {
 			lo, hi := pb.WavelengthAA[0], pb.WavelengthAA[len(pb.WavelengthAA)-1]
-			return nil, fmt.Errorf("passband %g–%g Å has non-zero throughput at %g Å: %w", lo, hi, lam, err)
+			return nil, fmt.Errorf("dust: passband %g–%g Å has non-zero throughput at %g Å: %w", lo, hi, lam, err)
 		}
 		p.a[k] = a
 	}

@@ -296,3 +296,17 @@ func pivotAA(pb Passband) float64 {
 	}
 	return math.Sqrt(num / den)
 }
+
+// BenchmarkBandRatioGaiaG: the exact (allocating) synthetic-photometry path
+// for one band, for comparison with BandTable.
+func BenchmarkBandRatioGaiaG(b *testing.B) {
+	law := mustLaw(b, NameF99, 3.1)
+	g := loadPassband(b, "gaia_dr3_G")
+	f := planck(5772)
+	b.ReportAllocs()
+	for i := 0; i < b.N; i++ {
+		if _, err := BandRatio(law, g, f, 1.5); err != nil {
+			b.Fatal(err)
+		}
+	}
+}

@@ -47,6 +47,20 @@
 // direction; Constant is a foreground screen and Spread draws star-to-star
 // (differential) scatter about a sight-line value.
 //
+// # Accuracy and speed
+//
+// Measured by the tests and benchmarks of this package (2-core machine shared
+// with other jobs, so timings vary by ±40 %):
+//
+//   - laws vs python3-extinction 0.4.6: ≤ 3e-15;
+//   - BandTable vs exact synthetic photometry: ≤ 3.7e-4 in A_X/A_V over
+//     2000–100000 K and A_V 0–20 for the 16 standard bands (SDSS u, cool
+//     stars, worst), ≤ 2.5e-4 elsewhere, mostly < 1e-5;
+//   - ExpDisc vs gonum quadrature: ≤ 2.1e-7 relative;
+//   - BandTable.Ratios, 16 bands: 57–110 ns per star, no allocation;
+//     building the table: 0.3–0.4 s; exact BandRatio for Gaia G: ≈ 0.2 ms;
+//   - ExpDisc.AV: 22–33 ns; Spread.Draw: 38–46 ns; both allocation-free.
+//
 // # References
 //
 //   - Cardelli, J. A., Clayton, G. C. & Mathis, J. S. 1989, ApJ 345, 245
