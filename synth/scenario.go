@@ -174,14 +174,16 @@ type SurveyBand struct {
 	FloorMag *float64 `yaml:"floor_mag,omitempty" json:"floor_mag"`
 	// SaturationMag: stars brighter than this are flagged saturated and not detected.
 	SaturationMag float64 `yaml:"saturation_mag" json:"saturation_mag"`
-	// Noise: "ccd" (Ivezić et al. 2019 form with Gamma), "background" (σ_flux = f5/5),
-	// or "table" (Table: mag, error rows). Default ccd.
+	// Noise: "ivezic2019" (Ivezić et al. 2019 eqs. 4–5 with Gamma, default 0.039),
+	// "background_limited" (σ_flux = f5/5) or "table" (Table: mag, error rows).
+	// Default ivezic2019.
 	Noise string   `yaml:"noise,omitempty" json:"noise"`
 	Gamma *float64 `yaml:"gamma,omitempty" json:"gamma,omitempty"`
 	Table string   `yaml:"table,omitempty" json:"table,omitempty"`
-	// Completeness: "logistic" (50 % at Completeness50Mag, width CompletenessWidthMag) or
-	// "table" (CompletenessTable: mag, fraction rows) or "none". Default logistic at the
-	// 5σ limit with width 0.2 mag.
+	// Completeness: extra losses on top of the S/N threshold (which alone already makes
+	// the survey limit): "none" (default), "logistic" (50 % at Completeness50Mag, default
+	// the 5σ limit, width CompletenessWidthMag, default 0.2 mag) or "table"
+	// (CompletenessTable: mag, fraction rows).
 	Completeness         string   `yaml:"completeness,omitempty" json:"completeness"`
 	Completeness50Mag    *float64 `yaml:"completeness_50_mag,omitempty" json:"completeness_50_mag,omitempty"`
 	CompletenessWidthMag float64  `yaml:"completeness_width_mag,omitempty" json:"completeness_width_mag,omitempty"`
@@ -190,7 +192,7 @@ type SurveyBand struct {
 
 // Detection is the rule that combines per-band detections.
 type Detection struct {
-	// Rule: all, any or at_least (with Count). Default all.
+	// Rule: all_of, any_of or at_least (with Count). Default all_of.
 	Rule  string   `yaml:"rule" json:"rule"`
 	Bands []string `yaml:"bands" json:"bands"`
 	Count int      `yaml:"count,omitempty" json:"count,omitempty"`

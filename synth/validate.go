@@ -26,9 +26,9 @@ var (
 	fehKinds       = []string{"fixed", "gaussian", "table"}
 	qKinds         = []string{"flat", "power_law"}
 	geometryKinds  = []string{"fixed", "plummer"}
-	noiseKinds     = []string{"ccd", "background", "table"}
+	noiseKinds     = []string{"ivezic2019", "background_limited", "table"}
 	complKinds     = []string{"logistic", "table", "none"}
-	ruleKinds      = []string{"all", "any", "at_least"}
+	ruleKinds      = []string{"all_of", "any_of", "at_least"}
 	formatKinds    = []string{"parquet", "arrow", "fits", "csv"}
 )
 
@@ -343,7 +343,7 @@ func (s *Scenario) validateSurvey() error {
 			return s.errf(p+".saturation_mag", "%g mag is out of range; allowed: -30 up to the 5-sigma limit (%g mag)", b.SaturationMag, b.Limit5SigmaMag)
 		}
 		if b.Noise == "" {
-			b.Noise = "ccd"
+			b.Noise = "ivezic2019"
 		}
 		if !oneOf(b.Noise, noiseKinds) {
 			return s.errf(p+".noise", "unknown noise model %q; allowed: %s", b.Noise, strings.Join(noiseKinds, ", "))
@@ -352,7 +352,7 @@ func (s *Scenario) validateSurvey() error {
 			return s.errf(p+".table", "missing: a file of mag, error rows for noise: table")
 		}
 		if b.Completeness == "" {
-			b.Completeness = "logistic"
+			b.Completeness = "none"
 		}
 		if !oneOf(b.Completeness, complKinds) {
 			return s.errf(p+".completeness", "unknown completeness model %q; allowed: %s", b.Completeness, strings.Join(complKinds, ", "))
@@ -375,7 +375,7 @@ func (s *Scenario) validateSurvey() error {
 	}
 	d := &sv.Detection
 	if d.Rule == "" {
-		d.Rule = "all"
+		d.Rule = "all_of"
 	}
 	if !oneOf(d.Rule, ruleKinds) {
 		return s.errf("survey.detection.rule", "unknown rule %q; allowed: %s", d.Rule, strings.Join(ruleKinds, ", "))

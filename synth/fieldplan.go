@@ -1,0 +1,321 @@
+package synth
+
+import (
+	"context"
+	"fmt"
+	"math"
+	"math/rand/v2"
+	"sort"
+
+	"github.com/starmock/starmock/evolve"
+	"github.com/starmock/starmock/synth/dust"
+	"github.com/starmock/starmock/synth/galaxy"
+)
+
+// galacticDefaults fills the population of a Galactic component that the scenario left
+// unspecified. The values are broad descriptions of each component, meant as a starting
+// point and overridable key by key:
+//
+//   - mass function: Kroupa (2001), 0.1–100 Msun;
+//   - thin disc: constant star formation over the last 10 Gyr (common practice);
+//     [Fe/H] Gaussian −0.1 ± 0.2 dex (solar-neighbourhood dwarfs; from memory, of the order
+//     found by Nordström et al. 2004);
+//   - thick disc: burst at 11 Gyr ± 1 Gyr; [Fe/H] −0.6 ± 0.3 (Ivezić et al. 2008, from memory);
+//   - halo: burst at 12 Gyr ± 0.8 Gyr; [Fe/H] −1.5 ± 0.4 (Ivezić et al. 2008 median −1.46,
+//     from memory; the model's floor of −2.3 truncates the metal-poor tail);
+//   - bulge: burst at 10 Gyr ± 1.5 Gyr; [Fe/H] −0.1 ± 0.25 (from memory, of the order of
+//     Zoccali et al. 2008);
+//   - binaries: the multiplicity fractions per primary mass of Duchêne & Kraus (2013, ARA&A
+//     51, 269; population_values.tsv rows dk13_*: 22 % below 0.1 Msun, 26 % for 0.1–0.5,
+//     44 % for 0.7–1.3, ≥ 50 % for 1.5–5, ≥ 60 % for 8–16, ≥ 80 % above 16 Msun; the 0.5–0.7
+//     gap keeps 26 %), mass ratios dN/dq ∝ q^0.3 on 0.1–1 (their solar-type γ).
+func galacticDefaults(c *Component) {
+	if c.MassFunction.Kind == "" {
+		c.MassFunction = MassFunction{Kind: "kroupa", MinMassMsun: 0.1, MaxMassMsun: 100}
+	}
+	type pop struct {
+		age   AgeSpec
+		feh   Metallicity
+		empty bool
+	}
+	def := map[string]pop{
+		"thin_disc":  {age: AgeSpec{Kind: "constant", MinAgeYr: 0, MaxAgeYr: 10e9}, feh: Metallicity{Kind: "gaussian", FeH: -0.1, SigmaDex: 0.2}},
+		"thick_disc": {age: AgeSpec{Kind: "burst", AgeYr: 11e9, SpreadYr: 1e9}, feh: Metallicity{Kind: "gaussian", FeH: -0.6, SigmaDex: 0.3}},
+		"halo":       {age: AgeSpec{Kind: "burst", AgeYr: 12e9, SpreadYr: 0.8e9}, feh: Metallicity{Kind: "gaussian", FeH: -1.5, SigmaDex: 0.4}},
+		"bulge":      {age: AgeSpec{Kind: "burst", AgeYr: 10e9, SpreadYr: 1.5e9}, feh: Metallicity{Kind: "gaussian", FeH: -0.1, SigmaDex: 0.25}},
+	}[c.Kind]
+	if c.Age.Kind == "" {
+		c.Age = def.age
+	}
+	if c.Metallicity.Kind == "" && c.Metallicity.FeH == 0 {
+		c.Metallicity = def.feh
+	}
+	if c.Binaries == nil {
+		c.Binaries = &Binaries{
+			FractionByMass: []MassFraction{{0, 0.22}, {0.1, 0.26}, {0.7, 0.44}, {1.5, 0.50}, {8, 0.60}, {16, 0.80}},
+			MassRatio:      MassRatio{Kind: "power_law", Min: 0.1, Max: 1, Gamma: 0.3},
+		}
+	}
+}
+
+// fieldPos locates a field star: the shell it was drawn in.
+type fieldPos struct{ shell int }
+
+// fieldPlan is a Galactic component resolved along the field's sight lines: the
+// expected and drawn number of systems per distance shell, and the mass below which a
+// system can never be detected in each shell.
+type fieldPlan struct {
+	name   string
+	model  *galaxy.Model
+	area   galaxy.Area
+	shells []galaxy.Shell
+	// Per shell: expected systems before and after the detectability bound, the bound
+	// (initial mass of the primary, Msun) and its CDF value, and the drawn count.
+	expectedAll []float64
+	expected    []float64
+	massBound   []float64
+	pBound      []float64
+	counts      []int64
+	cum         []int64 // cum[i] = systems in shells before i
+	imfLo       float64
+	ext         *extinctionPlan
+	dust        *fieldDust
+	// Factors used to turn the density law into systems.
+	initialPerPresent float64
+	meanSystemMsun    float64
+}
+
+// ShellInfo is one distance shell of a Galactic component, for forecasts.
+type ShellInfo struct {
+	InnerPc, OuterPc float64
+	// ExpectedSystems is the expected number of systems in the shell; ExpectedSimulated
+	// the part that can pass the detection rule (the rest is skipped); Drawn the Poisson
+	// number simulated; MassBoundMsun the initial mass below which primaries were skipped.
+	ExpectedSystems, ExpectedSimulated float64
+	Drawn                              int64
+	MassBoundMsun                      float64
+}
+
+// Shells describes the shells of a Galactic component (nil for other components).
+func (cp *ComponentPlan) Shells() []ShellInfo {
+	f := cp.field
+	if f == nil {
+		return nil
+	}
+	out := make([]ShellInfo, len(f.shells))
+	for i, s := range f.shells {
+		out[i] = ShellInfo{s.InnerPc, s.OuterPc, f.expectedAll[i], f.expected[i], f.counts[i], f.massBound[i]}
+	}
+	return out
+}
+
+// locate returns the shell of the component's star with index starIdx.
+func (f *fieldPlan) locate(starIdx int64) fieldPos {
+	i := sort.Search(len(f.counts), func(i int) bool { return f.cum[i+1] > starIdx })
+	return fieldPos{shell: i}
+}
+
+// mass draws a primary's initial mass from the IMF truncated below the shell's bound,
+// by quantile: m = F⁻¹(p_bound + u (1 − p_bound)) (one uniform draw).
+func (f *fieldPlan) mass(cp *ComponentPlan, fp fieldPos, r *rand.Rand) float64 {
+	p0 := f.pBound[fp.shell]
+	return cp.IMF.Quantile(p0 + r.Float64()*(1-p0))
+}
+
+func (s *Scenario) buildArea() (galaxy.Area, error) {
+	a := s.Field.Area
+	var (
+		area galaxy.Area
+		err  error
+	)
+	switch a.Kind {
+	case "cone":
+		area, err = galaxy.NewCone(a.LDeg, a.BDeg, a.RadiusDeg)
+	case "galactic_box":
+		area, err = galaxy.NewRect(galaxy.Galactic, a.LMinDeg, a.LMaxDeg, a.BMinDeg, a.BMaxDeg)
+	case "equatorial_box":
+		area, err = galaxy.NewRect(galaxy.Equatorial, a.RAMinDeg, a.RAMaxDeg, a.DecMinDeg, a.DecMaxDeg)
+	case "healpix":
+		scheme := galaxy.Ring
+		if a.Nested {
+			scheme = galaxy.Nested
+		}
+		area, err = galaxy.NewPixelList(galaxy.Galactic, int64(a.Nside), scheme, a.Pixels)
+	}
+	if err != nil {
+		return nil, s.errf("field.area", "%v", err)
+	}
+	return area, nil
+}
+
+// fieldShared is what all Galactic components of a plan share.
+type fieldShared struct {
+	model  *galaxy.Model
+	area   galaxy.Area
+	shells []galaxy.Shell
+	dust   *fieldDust
+}
+
+func (s *Scenario) fieldShared(p *Plan) (*fieldShared, error) {
+	if p.field != nil {
+		return p.field, nil
+	}
+	area, err := s.buildArea()
+	if err != nil {
+		return nil, err
+	}
+	f := s.Field
+	shells, err := galaxy.MakeShells(f.MinDistancePc, f.MaxDistancePc, f.Shells, galaxy.LogSpacing)
+	if err != nil {
+		return nil, s.errf("field", "%v", err)
+	}
+	params := galaxy.DefaultParams()
+	model, err := galaxy.NewModel(params)
+	if err != nil {
+		return nil, s.errf("field", "%v", err)
+	}
+	fd, err := s.newFieldDust(model)
+	if err != nil {
+		return nil, err
+	}
+	p.field = &fieldShared{model: model, area: area, shells: shells, dust: fd}
+	return p.field, nil
+}
+
+// newFieldPlan resolves a Galactic component: the initial-to-present mass factor and mean
+// system mass (from the component's IMF, history and binaries), the expected mass per
+// shell from the density law, the detectability bound per shell, and Poisson counts
+// drawn from the component's plan stream.
+func (s *Scenario) newFieldPlan(ctx context.Context, p *Plan, cp *ComponentPlan, c *Component) (*fieldPlan, error) {
+	path := fmt.Sprintf("components[%d]", cp.Index)
+	sh, err := s.fieldShared(p)
+	if err != nil {
+		return nil, err
+	}
+	f := &fieldPlan{name: c.Kind, model: sh.model, area: sh.area, shells: sh.shells, dust: sh.dust}
+	f.imfLo, _ = cp.IMF.Bounds()
+	law, err := dust.NewLaw(s.Field.Dust.Law, s.Field.Dust.RV)
+	if err != nil {
+		return nil, s.errf("field.dust.law", "%v", err)
+	}
+	table, err := p.Survey.bandTable(law)
+	if err != nil {
+		return nil, s.errf("field.dust", "%v", err)
+	}
+	spread := 0.0
+	if c.Extinction != nil {
+		spread = c.Extinction.AVSpreadMag
+	}
+	f.ext = &extinctionPlan{law: law, table: table, spread: spread, ebvPerAV: 1 / law.RV(), field: sh.dust}
+
+	// Initial mass per present mass, and mean initial mass per system (primary plus
+	// companion), by Monte Carlo over 20000 primaries of the component (plan stream).
+	r := newStream(p.Seed, cp.Index, 1, streamPlan)
+	var sumInit, sumPresent float64
+	models := map[int]*evolve.Model{}
+	const nMC = 20000
+	for i := 0; i < nMC; i++ {
+		m := cp.IMF.Rand(r)
+		a := cp.Ages.Age(r)
+		key, fq := quantiseFeH(cp.FeH.FeH(r))
+		mod, ok := models[key]
+		if !ok {
+			if mod, err = evolve.NewModel(evolve.ZFromFeH(fq)); err != nil {
+				return nil, s.errf(path+".metallicity", "%v", err)
+			}
+			models[key] = mod
+		}
+		st, err := mod.Evolve(m, a)
+		if err != nil {
+			return nil, s.errf(path, "%v", err)
+		}
+		sumInit += m
+		sumPresent += st.MassMsun
+	}
+	f.initialPerPresent = sumInit / sumPresent
+	f.meanSystemMsun = cp.IMF.Mean() + meanCompanionMass(cp)
+	if err := f.model.SetInitialMassPerPresentMass(c.Kind, f.initialPerPresent); err != nil {
+		return nil, s.errf(path+".kind", "%v", err)
+	}
+	masses, err := f.model.ShellMasses(f.area, f.shells, []string{c.Kind}, galaxy.IntegrationOptions{})
+	if err != nil {
+		return nil, s.errf("field", "%v", err)
+	}
+	n := len(f.shells)
+	f.expectedAll = make([]float64, n)
+	f.expected = make([]float64, n)
+	f.massBound = make([]float64, n)
+	f.pBound = make([]float64, n)
+	f.counts = make([]int64, n)
+	f.cum = make([]int64, n+1)
+	var bound *detectBound
+	if *s.Field.SkipUndetectable {
+		if bound, err = newDetectBound(p, cp, models); err != nil {
+			return nil, s.errf(path, "%v", err)
+		}
+	}
+	pr := newStream(p.Seed, cp.Index, 0, streamPlan)
+	for i, sm := range masses {
+		f.expectedAll[i] = sm.InitialMassMsun * c.DensityScale / f.meanSystemMsun
+		f.massBound[i] = f.imfLo
+		if bound != nil {
+			f.massBound[i] = bound.massBelowUndetectable(f.shells[i].InnerPc)
+		}
+		f.pBound[i] = cp.IMF.CDF(f.massBound[i])
+		if f.pBound[i] >= 1 {
+			f.pBound[i] = 1
+		}
+		f.expected[i] = f.expectedAll[i] * (1 - f.pBound[i])
+		k, err := galaxy.PoissonCount(f.expected[i], pr)
+		if err != nil {
+			return nil, s.errf("field", "%v", err)
+		}
+		f.counts[i] = k
+		f.cum[i+1] = f.cum[i] + k
+		if err := ctx.Err(); err != nil {
+			return nil, err
+		}
+	}
+	cp.Stars = f.cum[n]
+	return f, nil
+}
+
+// meanCompanionMass returns E[m2] per primary in Msun: the binary fraction times the mean
+// mass ratio times the primary mass, integrated over the IMF:
+//
+//	E[m2] = E[q] Σ_r f_r ⟨m⟩ MassFraction(m_r, m_{r+1})
+//
+// with E[q] = (γ+1)/(γ+2) (q_max^{γ+2} − q_min^{γ+2}) / (q_max^{γ+1} − q_min^{γ+1}).
+func meanCompanionMass(cp *ComponentPlan) float64 {
+	b := cp.binaries
+	if b == nil {
+		return 0
+	}
+	g := b.gamma
+	var eq float64
+	switch {
+	case math.Abs(g+1) < 1e-12:
+		eq = (b.qMax - b.qMin) / math.Log(b.qMax/b.qMin)
+	case math.Abs(g+2) < 1e-12:
+		eq = math.Log(b.qMax/b.qMin) / (1/b.qMin - 1/b.qMax)
+	default:
+		eq = (g + 1) / (g + 2) * (math.Pow(b.qMax, g+2) - math.Pow(b.qMin, g+2)) / (math.Pow(b.qMax, g+1) - math.Pow(b.qMin, g+1))
+	}
+	lo, hi := cp.IMF.Bounds()
+	mean := cp.IMF.Mean()
+	if len(b.byMass) == 0 {
+		return b.fraction * eq * mean
+	}
+	sum := 0.0
+	for i, row := range b.byMass {
+		a := math.Max(lo, row.AboveMassMsun)
+		z := hi
+		if i+1 < len(b.byMass) {
+			z = math.Min(hi, b.byMass[i+1].AboveMassMsun)
+		}
+		if z > a {
+			sum += row.Fraction * mean * cp.IMF.MassFraction(a, z)
+		}
+	}
+	return eq * sum
+}
