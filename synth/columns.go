@@ -100,7 +100,9 @@ func selectColumns(cols []output.Column, want []string) ([]int, error) {
 
 // SelectColumns returns the indices of the requested columns in cols (all when want is
 // empty), or an error naming an unknown column and listing the allowed names.
-func SelectColumns(cols []output.Column, want []string) ([]int, error) { return selectColumns(cols, want) }
+func SelectColumns(cols []output.Column, want []string) ([]int, error) {
+	return selectColumns(cols, want)
+}
 
 // BandColumn returns the position in Plan.Columns of per-band column j (0 abs_mag, 1
 // app_mag, 2 mag, 3 mag_err, 4 flux, 5 flux_err, 6 detected, 7 saturated) of band k.

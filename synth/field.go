@@ -1,7 +1,5 @@
 package synth
 
-import "fmt"
-
 // Field places the Galactic components of a scenario: which part of the sky, over which
 // distances, behind which dust.
 type Field struct {
@@ -114,6 +112,5 @@ func (s *Scenario) validateField() error {
 	if d.Model == "table" && d.Table == "" {
 		return s.errf("field.dust.table", "missing: a file of distance, A_V rows")
 	}
-	_ = fmt.Sprint
 	return nil
 }

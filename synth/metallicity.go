@@ -20,7 +20,7 @@ type FeHSampler interface {
 
 type fixedFeH float64
 
-func (f fixedFeH) FeH(*rand.Rand) float64     { return float64(f) }
+func (f fixedFeH) FeH(*rand.Rand) float64    { return float64(f) }
 func (f fixedFeH) Range() (float64, float64) { return float64(f), float64(f) }
 
 // gaussFeH is a normal distribution truncated to the evolution model's range by redrawing:

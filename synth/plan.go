@@ -41,7 +41,7 @@ type ComponentPlan struct {
 	// run (total-mass components); 0 otherwise.
 	RealisedMassMsun float64
 	// FirstID is the star_id of the component's first star.
-	FirstID int64
+	FirstID  int64
 	binaries *binaryModel
 	place    *placement
 	ext      *extinctionPlan

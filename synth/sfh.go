@@ -40,7 +40,7 @@ func (b burstAges) Range() (float64, float64) {
 // constantAges forms stars at a constant rate: ages uniform in [min, max].
 type constantAges struct{ minYr, maxYr float64 }
 
-func (c constantAges) Age(r *rand.Rand) float64 { return c.minYr + (c.maxYr-c.minYr)*r.Float64() }
+func (c constantAges) Age(r *rand.Rand) float64  { return c.minYr + (c.maxYr-c.minYr)*r.Float64() }
 func (c constantAges) Range() (float64, float64) { return c.minYr, c.maxYr }
 
 // expAges forms stars at a rate ∝ exp(−t/τ), t the time since formation began (at the

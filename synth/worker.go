@@ -37,12 +37,12 @@ type worker struct {
 	models   map[int]*evolve.Model
 	samplers map[[2]int]*galaxy.ShellSampler // (component, shell)
 	dust     dustCache
-	nb     int
-	absP   []float64
-	absC   []float64
-	ratP   []float64
-	ratC   []float64
-	det    []bool
+	nb       int
+	absP     []float64
+	absC     []float64
+	ratP     []float64
+	ratC     []float64
+	det      []bool
 }
 
 func newWorker(p *Plan) *worker {
