@@ -13,7 +13,10 @@ import (
 //
 // with R the Galactocentric cylindrical radius and z the height above the
 // dust mid-plane, normalised so that at the Sun's position (R☉, z☉) it equals
-// the local value A₀ (AVPerKpc / 1000 mag per pc). This is the form of the
+// the local value A₀ (AVPerKpc / 1000 mag per pc): the local "mag per kpc in
+// the plane" is measured along b ≈ 0 lines from the Sun, which run at the
+// Sun's height, so the model reproduces it there (the mid-plane value below
+// the Sun is A₀ e^{|z☉|/h_z}, 25 % higher for the defaults). This is the form of the
 // global exponential dust disc fitted by Li et al. (2018, ApJ 858, 75; the
 // scale height, length and solar offset defaults come from that fit) and of
 // Marshall et al. (2006) in the inner Galaxy; the plane value is the local mean.

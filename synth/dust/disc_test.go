@@ -203,3 +203,28 @@ func BenchmarkExpDiscAV(b *testing.B) {
 	}
 	_ = s
 }
+
+// TestDiscDefaultsMatchKit: the default constants equal the rows of the
+// reference kit's population_values.tsv they cite (copied to testdata).
+func TestDiscDefaultsMatchKit(t *testing.T) {
+	t.Parallel()
+	_, rows := readTSV(t, "testdata/population_values.tsv")
+	want := map[string]float64{
+		"A_V_per_kpc_local_plane":        DefaultAVPerKpc,
+		"dust_scale_height_lamost":       DefaultDustScaleHeightPc,
+		"dust_scale_length_lamost":       DefaultDustScaleLengthPc,
+		"sun_above_dust_midplane_lamost": DefaultSunAboveDustPlanePc,
+	}
+	found := 0
+	for _, r := range rows {
+		if v, ok := want[r[0]]; ok {
+			found++
+			if got := parseF(t, r[1]); got != v {
+				t.Errorf("%s: kit %g, package default %g", r[0], got, v)
+			}
+		}
+	}
+	if found != len(want) {
+		t.Errorf("found %d of %d kit rows", found, len(want))
+	}
+}
