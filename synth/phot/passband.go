@@ -205,7 +205,7 @@ func (pb *Passband) prepareStep(stepAA float64) {
 }
 
 // PivotAA returns the pivot wavelength in Å (Koornneef et al. 1986; Tokunaga &
-// Vacca 2005, eq. A11):
+// Vacca 2005; references from memory):
 //
 //	λp² = ∫ S λ dλ / ∫ S/λ dλ      (per-photon response S)
 //	λp² = ∫ R dλ / ∫ R/λ² dλ       (energy-type response R = S λ)

@@ -145,6 +145,16 @@ func NewPhotometer(g *Grid, bands []string) (*Photometer, error) {
 	return p, nil
 }
 
+// NewDefaultPhotometer returns a Photometer for DefaultGrid and the sixteen
+// DefaultBandNames bands, in that order.
+func NewDefaultPhotometer() (*Photometer, error) {
+	g, err := DefaultGrid()
+	if err != nil {
+		return nil, err
+	}
+	return NewPhotometer(g, DefaultBandNames)
+}
+
 // Bands returns the photometer's bands in output order. Bands that are also
 // built in carry their curve and pivot wavelength; other grid bands have a nil
 // Curve and a NaN PivotAA.

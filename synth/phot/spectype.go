@@ -57,6 +57,18 @@ func SpectralType(teffK float64) string {
 	return specNames[i]
 }
 
+// StarSpectralType returns "WD" for a white-dwarf gravity (log g ≥ 6.5) and
+// SpectralType(teffK) otherwise. The dwarf type–Teff scale does not apply to
+// white dwarfs, whose own classes (DA, DB, …) depend on the atmospheric
+// composition, which the evolution model does not give; "WD" says only that it
+// is a white dwarf. NaN log g gives SpectralType(teffK).
+func StarSpectralType(teffK, loggCgs float64) string {
+	if loggCgs >= wdMinLoggCgs {
+		return "WD"
+	}
+	return SpectralType(teffK)
+}
+
 // Luminosity-class boundaries (common practice; see LuminosityClass).
 const (
 	wdMinLoggCgs       = 6.5 // white dwarfs

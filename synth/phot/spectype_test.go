@@ -32,6 +32,15 @@ func TestSpectralType(t *testing.T) {
 	}
 }
 
+func TestStarSpectralType(t *testing.T) {
+	if got := StarSpectralType(12000, 8); got != "WD" {
+		t.Errorf("white dwarf: %q, want WD", got)
+	}
+	if got := StarSpectralType(5772, 4.44); got != "G2" {
+		t.Errorf("Sun: %q, want G2", got)
+	}
+}
+
 // Luminosity classes (boundaries: common practice, see LuminosityClass).
 func TestLuminosityClass(t *testing.T) {
 	cases := []struct {

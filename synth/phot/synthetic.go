@@ -12,8 +12,9 @@ const abFNu = consts.ABZeroJy * consts.Jansky
 
 // ABMagFNu returns the AB magnitude through pb of a spectrum given as a flux
 // density per unit frequency, fNuWM2Hz(λ) in W m^-2 Hz^-1 as a function of
-// vacuum wavelength in Å (Oke & Gunn 1983; photon-counting definition of
-// Fukugita et al. 1996, eq. 7, and Bessell & Murphy 2012, eq. 2):
+// vacuum wavelength in Å (Oke & Gunn 1983; the photon-counting form of
+// Fukugita et al. 1996 and Bessell & Murphy 2012; equation numbers not given
+// because they are not at hand):
 //
 //	m_AB = −2.5 log10( ∫ f_ν S ν⁻¹ dν / ∫ 3631 Jy S ν⁻¹ dν )
 //
