@@ -5,6 +5,8 @@ import (
 	"fmt"
 	"math"
 	"sort"
+
+	"github.com/starmock/starmock/internal/consts"
 )
 
 // Passband is a photometric response curve handed over as plain slices (so this
@@ -169,6 +171,16 @@ func (p *bandPlan) ratio(flux func(k int) float64, avMag float64) float64 {
 		num += wf * math.Expm1(-ln10Over25*avMag*p.a[k])
 	}
 	return -math.Log1p(num/den) / ln10Over25 / avMag
+}
+
+// BlackbodyFlux returns the spectrum of a blackbody of temperature teffK (K)
+// as a function of wavelength in Å, for BandRatio: B_λ(T) in W m⁻³ sr⁻¹ from
+// consts.PlanckLambda (Planck 1901). Panics if teffK is not finite and > 0.
+func BlackbodyFlux(teffK float64) func(lambdaAA float64) float64 {
+	if !(teffK > 0) || math.IsInf(teffK, 1) {
+		panic(fmt.Sprintf("dust: BlackbodyFlux: teffK %g K must be finite and > 0", teffK))
+	}
+	return func(lambdaAA float64) float64 { return consts.PlanckLambda(lambdaAA*1e-10, teffK) }
 }
 
 // BandRatio returns A_X/A_V for the passband pb, for a source of spectrum

@@ -310,3 +310,24 @@ func BenchmarkBandRatioGaiaG(b *testing.B) {
 		}
 	}
 }
+
+// TestBlackbodyFlux: BlackbodyFlux is B_λ of consts.PlanckLambda with λ in Å;
+// checked at the Wien peak λ_max T = 2.897771955e-3 m K (CODATA 2018 Wien
+// displacement constant), where the derivative of B_λ vanishes.
+func TestBlackbodyFlux(t *testing.T) {
+	t.Parallel()
+	f := BlackbodyFlux(5772)
+	peak := 2.897771955e-3 / 5772 * 1e10 // Å
+	if f(peak) <= f(peak*0.999) || f(peak) <= f(peak*1.001) {
+		t.Errorf("B_λ(5772 K) not at its maximum at the Wien wavelength %.1f Å", peak)
+	}
+	if f(5000) != planck(5772)(5000) {
+		t.Error("BlackbodyFlux differs from consts.PlanckLambda")
+	}
+	defer func() {
+		if recover() == nil {
+			t.Error("BlackbodyFlux(0) should panic")
+		}
+	}()
+	BlackbodyFlux(0)
+}

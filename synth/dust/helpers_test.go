@@ -105,6 +105,7 @@ func loadPassband(t testing.TB, name string) Passband {
 }
 
 // planck returns a function λ(Å) → B_λ(T) (any unit; the ratio is scale free).
+// (written out here rather than calling BlackbodyFlux, which TestBlackbodyFlux checks against it)
 func planck(teffK float64) func(float64) float64 {
 	return func(lamAA float64) float64 { return consts.PlanckLambda(lamAA*1e-10, teffK) }
 }

@@ -7,7 +7,8 @@ import (
 
 // SightLine gives the cumulative V-band extinction A_V in mag from the
 // observer to a distance distancePc (pc) along one line of sight. A_V is
-// non-negative and non-decreasing in distance, and 0 at distance 0. Every
+// non-negative and non-decreasing in distance; it is 0 at distance 0 for the
+// dust-disc and table models (a Constant screen is the exception). Every
 // implementation in this package panics for a negative, NaN or infinite
 // distance (a caller bug) and is safe for concurrent use.
 type SightLine interface {
