@@ -14,6 +14,9 @@
 // ("response_kind"); Passband.Photon carries that, and every integral honours
 // it. Pivot wavelengths come from the curves (Passband.PivotAA) and reproduce
 // the kit's README table to 0.05 Å. LoadPassband reads a user filter file.
+// ExtendGrid adds bands without empirical BCs (the Rubin curves, user filters)
+// to a grid by blackbody photometry tied to the nearest grid band, flagged
+// blackbody.
 //
 // # Absolute magnitudes
 //
@@ -144,9 +147,8 @@
 // # Incomplete
 //
 // No metallicity dependence in the built-in grid (one [Fe/H] = 0 slice; the
-// Alonso relations have [Fe/H] terms that are not used yet). No Rubin LSST
-// bolometric corrections in the built-in grid (curves only; a user grid can add
-// them). Giant U−B and g−r come from dwarfs of equal B−V, which is approximate.
+// Alonso relations have [Fe/H] terms that are not used yet). No empirical Rubin LSST
+// bolometric corrections (ExtendGrid gives blackbody-tied ones). Giant U−B and g−r come from dwarfs of equal B−V, which is approximate.
 // M dwarfs have no empirical SDSS g−r in the dwarf table (g and u are
 // blackbody-tied there), and giants below 3,700 K, stars above 45,900 K and white
 // dwarfs are blackbody-based. Brown dwarfs (below 2,330 K) are outside the grid.
