@@ -24,6 +24,7 @@ func BenchmarkRand(b *testing.B) {
 		{"chabrier_system", imf.Spec{Kind: "chabrier_system"}},
 		{"broken_power_law_5seg", imf.Spec{Kind: "broken_power_law", Breaks: []float64{0.2, 0.5, 1, 5}, Slopes: []float64{0.5, 1.3, 2.0, 2.3, 2.7}}},
 		{"table_8nodes", imf.Spec{Kind: "table", TablePath: filepath.Join("testdata", "table_invented.txt")}},
+		{"table_14nodes", imf.Spec{Kind: "table", TablePath: filepath.Join("testdata", "table_invented_fine.txt")}},
 	} {
 		f, err := imf.New(c.spec)
 		if err != nil {

@@ -41,7 +41,28 @@ func allCases() []testCase {
 		{"broken_1_2_2.7", imf.Spec{Kind: "broken_power_law", LoMsun: 0.05, HiMsun: 120, Breaks: []float64{0.5, 3}, Slopes: []float64{1.0, 2.0, 2.7}}, []float64{0.5, 3}},
 		{"broken_flat_and_rising", imf.Spec{Kind: "broken_power_law", LoMsun: 0.2, HiMsun: 20, Breaks: []float64{1}, Slopes: []float64{-0.5, 0}}, []float64{1}},
 		{"table_invented", imf.Spec{Kind: "table", TablePath: filepath.Join("testdata", "table_invented.txt")}, []float64{0.1, 0.3, 0.7, 1.5, 4, 20}},
+		// 13 segments: exercises the binary-search segment lookup.
+		{"table_invented_fine", imf.Spec{Kind: "table", TablePath: filepath.Join("testdata", "table_invented_fine.txt"), LoMsun: 0.03, HiMsun: 140}, tableKnots(filepath.Join("testdata", "table_invented_fine.txt"))},
 	}
+}
+
+// tableKnots returns the node masses of a two-column table file.
+func tableKnots(path string) []float64 {
+	data, err := os.ReadFile(path)
+	if err != nil {
+		panic(err)
+	}
+	var knots []float64
+	for _, line := range strings.Split(string(data), "\n") {
+		f := strings.Fields(line)
+		if len(f) != 2 || strings.HasPrefix(f[0], "#") {
+			continue
+		}
+		if m, err := strconv.ParseFloat(f[0], 64); err == nil {
+			knots = append(knots, m)
+		}
+	}
+	return knots
 }
 
 func mustNew(t testing.TB, spec imf.Spec) imf.IMF {

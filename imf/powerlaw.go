@@ -133,6 +133,7 @@ func (s *segment) invert(p float64) float64 {
 type PowerLaw struct {
 	name    string
 	segs    []segment
+	pUpper  []float64 // CDF at the top of each segment but the last (compact, for findP)
 	meanMsn float64
 }
 
@@ -166,7 +167,11 @@ func finishPowerLaw(name string, segs []segment, raws, rawm []float64) *PowerLaw
 		pc += raws[i] / nTot
 		mc += rawm[i] / mTot
 	}
-	return &PowerLaw{name: name, segs: segs, meanMsn: mTot / nTot}
+	pUpper := make([]float64, len(segs)-1)
+	for i := range pUpper {
+		pUpper[i] = segs[i+1].pStart
+	}
+	return &PowerLaw{name: name, segs: segs, pUpper: pUpper, meanMsn: mTot / nTot}
 }
 
 // find returns the index of the segment with lo <= m < hi (the last segment
@@ -193,24 +198,25 @@ func (f *PowerLaw) find(m float64) int {
 	return lo
 }
 
-// findP returns the segment holding cumulative probability p.
+// findP returns the segment holding cumulative probability p: the number
+// of segment tops at or below p (linear scan of the compact pUpper for few
+// segments, binary search otherwise).
 func (f *PowerLaw) findP(p float64) int {
-	segs := f.segs
-	if len(segs) <= 8 {
-		for i := 0; i < len(segs)-1; i++ {
-			if p < segs[i+1].pStart {
-				return i
-			}
+	up := f.pUpper
+	if len(up) <= 8 {
+		i := 0
+		for i < len(up) && p >= up[i] {
+			i++
 		}
-		return len(segs) - 1
+		return i
 	}
-	lo, hi := 0, len(segs)-1
+	lo, hi := 0, len(up)
 	for lo < hi {
-		mid := (lo + hi + 1) / 2
-		if p >= segs[mid].pStart {
-			lo = mid
+		mid := int(uint(lo+hi) >> 1)
+		if p >= up[mid] {
+			lo = mid + 1
 		} else {
-			hi = mid - 1
+			hi = mid
 		}
 	}
 	return lo
