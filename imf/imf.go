@@ -220,13 +220,18 @@ func ExpectedNumberAbove(f IMF, mMsun float64) float64 {
 // (mass m) is kept if that leaves the total closer to the target, i.e. if
 // S - totalMsun <= totalMsun - (S - m), and dropped otherwise. Why: the
 // realised total is then always within half of one stellar mass of the
-// target; unlike "stop before" (always drop the crossing star) it does not
-// systematically remove massive stars, and unlike "stop after" (always keep
-// it) it does not systematically add them, so the mean mass of the sample is
-// unbiased at leading order. The kept stars are an unaltered prefix of the
-// i.i.d. sequence, so a given seed gives the same masses for any target
-// that stops at the same star. The rule and its comparison with the others
-// follow Haas & Anders (2010, A&A 512, A79; from memory).
+// target (the smallest possible error for a prefix of the draws); "stop
+// before" (always drop the crossing star) falls short by up to a whole
+// stellar mass and removes massive stars preferentially, "stop after"
+// (always keep it) overshoots and adds them. Whatever the rule, only the
+// last star is affected, so the mass distribution of the sample is that of
+// the IMF up to a correction of order 1/N for N stars; for targets of only
+// a few times the upper mass limit every stopping rule distorts the
+// high-mass end, and callers who need exact IMF statistics should sample by
+// number. The kept stars are an unaltered prefix of the i.i.d. sequence, so
+// a given seed gives the same masses for any target that stops at the same
+// star. Stopping rules and their effects are compared by Haas & Anders
+// (2010, A&A 512, A79; from memory).
 //
 // Random stream: one r.Float64 per drawn star, including a dropped last
 // star. If totalMsun is smaller than half the first drawn mass the result is
