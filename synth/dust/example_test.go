@@ -3,6 +3,7 @@ package dust_test
 import (
 	"fmt"
 	"math/rand/v2"
+	"strings"
 
 	"github.com/starmock/starmock/synth/dust"
 )
@@ -66,4 +67,32 @@ func ExampleSpread() {
 	}
 	fmt.Printf("mean A_V %.2f mag\n", sum/n)
 	// Output: mean A_V 0.80 mag
+}
+
+// A user sight-line table (format documented at AVTable) with one invented
+// direction; A_V is interpolated linearly in distance, from (0, 0) to the
+// first row, and held at the last value beyond the table.
+func ExampleReadAVTable() {
+	text := `# invented field "Copper Gate"
+l_deg b_deg distance_pc av_mag
+120.0 -3.5  200 0.10
+120.0 -3.5 1000 0.90
+`
+	tab, err := dust.ReadAVTable(strings.NewReader(text), "copper_gate.txt")
+	if err != nil {
+		panic(err)
+	}
+	line, sep := tab.Nearest(120.2, -3.5)
+	fmt.Printf("separation %.2f deg\n", sep)
+	for _, d := range []float64{100, 600, 5000} {
+		fmt.Printf("A_V(%g pc) = %.2f mag (covered: %v)\n", d, line.AV(d), line.Covers(d))
+	}
+	_, err = dust.ReadAVTable(strings.NewReader("l_deg b_deg distance_pc av_mag\n1 2 300 0.5\n1 2 200 0.6\n"), "bad.txt")
+	fmt.Println(err)
+	// Output:
+	// separation 0.20 deg
+	// A_V(100 pc) = 0.05 mag (covered: true)
+	// A_V(600 pc) = 0.50 mag (covered: true)
+	// A_V(5000 pc) = 0.90 mag (covered: false)
+	// dust: bad.txt:3: invalid sight-line table: distance_pc 200 pc not above 300 pc of the previous row (must increase strictly within a direction)
 }

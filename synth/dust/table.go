@@ -42,7 +42,7 @@ type AVTable struct {
 // returns the last A_V: the table is taken to hold all the dust along the
 // line (documented extrapolation; use MaxDistancePc or Covers to detect it).
 type TableSightLine struct {
-	LDeg, BDeg float64
+	LDeg, BDeg float64 // direction: Galactic longitude and latitude, degrees
 	distPc     []float64
 	avMag      []float64
 }

@@ -21,22 +21,28 @@ OUT = os.path.join(HERE, "extinction_curves_fine.tsv")
 GRID = sorted(set([round(1000.0 * 1.01 ** k, 6) for k in range(0, 412)] +
                   [1e4 / 1.1, 1e4 / 3.3, 1e4 / 5.9, 1e4 / 8.0, 2700.0, 2600.0,
                    4110.0, 4670.0, 5470.0, 6000.0, 12200.0, 26500.0]))
-LAWS = [  # (name, function, R_V, min A, max A)
+LAWS = [  # (name, function, R_V, min A, max A); R_V 2.0 and 6.0 are the package's limits
+    ("ccm89", extinction.ccm89, 2.0, 1000.0, 1e4 / 0.3),
     ("ccm89", extinction.ccm89, 2.5, 1000.0, 1e4 / 0.3),
     ("ccm89", extinction.ccm89, 3.1, 1000.0, 1e4 / 0.3),
     ("ccm89", extinction.ccm89, 5.0, 1000.0, 1e4 / 0.3),
+    ("ccm89", extinction.ccm89, 6.0, 1000.0, 1e4 / 0.3),
+    ("od94", extinction.odonnell94, 2.0, 1000.0, 1e4 / 0.3),
     ("od94", extinction.odonnell94, 2.5, 1000.0, 1e4 / 0.3),
     ("od94", extinction.odonnell94, 3.1, 1000.0, 1e4 / 0.3),
     ("od94", extinction.odonnell94, 5.0, 1000.0, 1e4 / 0.3),
+    ("od94", extinction.odonnell94, 6.0, 1000.0, 1e4 / 0.3),
+    ("f99", extinction.fitzpatrick99, 2.0, 1150.0, 6.0e4),
     ("f99", extinction.fitzpatrick99, 2.5, 1150.0, 6.0e4),
     ("f99", extinction.fitzpatrick99, 3.1, 1150.0, 6.0e4),
     ("f99", extinction.fitzpatrick99, 5.0, 1150.0, 6.0e4),
+    ("f99", extinction.fitzpatrick99, 6.0, 1150.0, 6.0e4),
 ]
 
 
 def main():
     lines = [
-        "# extinction_curves_fine.tsv: A_lambda/A_V (a_v = 1) of ccm89, od94 and f99 at R_V 2.5, 3.1, 5.0 "
+        "# extinction_curves_fine.tsv: A_lambda/A_V (a_v = 1) of ccm89, od94 and f99 at R_V 2.0, 2.5, 3.1, 5.0, 6.0 "
         "on %d wavelengths 1000-60000 A, 17 significant digits." % len(GRID),
         "# Obtained: computed with Debian package python3-extinction %s and numpy %s by "
         "regen_extinction_fine.py in this folder." % (extinction.__version__, np.__version__),
