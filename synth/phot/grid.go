@@ -52,6 +52,14 @@ var ErrGrid = errors.New("invalid bolometric-correction grid")
 // MaxGridBands is the largest number of band columns a grid may have.
 const MaxGridBands = 64
 
+// Plausibility limits of grid axes, to catch unit mistakes (log Teff for Teff,
+// g for log g, Z for [Fe/H] would mostly pass as numbers).
+const (
+	minGridTeffK, maxGridTeffK = 100.0, 1e7
+	minGridLogg, maxGridLogg   = -5.0, 12.0
+	minGridFeH, maxGridFeH     = -6.0, 2.0
+)
+
 // Axes returns the grid's node values: Teff in K, log g in cgs and [Fe/H] in
 // dex, each strictly increasing. The slices are copies.
 func (g *Grid) Axes() (teffK, loggCgs, feh []float64) {
@@ -102,7 +110,7 @@ var (
 	defaultGridErr  error
 )
 
-// DefaultGridFile is the path of the built-in grid inside the embedded data.
+// defaultGridFile is the path of the built-in grid inside the embedded data.
 const defaultGridFile = "data/default_bc_grid.tsv"
 
 // DefaultGrid returns the built-in bolometric-correction grid for the sixteen
@@ -268,13 +276,19 @@ func parseGrid(r io.Reader, file string) (*Grid, error) {
 				}
 				switch i {
 				case 0:
-					if v <= 0 {
-						return nil, gridErr(file, line, "teff_k %q K, want > 0 K", f)
+					if v < minGridTeffK || v > maxGridTeffK {
+						return nil, gridErr(file, line, "teff_k %q K, want %g to %g K (kelvin, not log10)", f, minGridTeffK, maxGridTeffK)
 					}
 					rw.t = v
 				case 1:
+					if v < minGridLogg || v > maxGridLogg {
+						return nil, gridErr(file, line, "logg_cgs %q, want %g to %g (log10 of g in cm s^-2)", f, minGridLogg, maxGridLogg)
+					}
 					rw.lg = v
 				case 2:
+					if v < minGridFeH || v > maxGridFeH {
+						return nil, gridErr(file, line, "feh %q dex, want %g to %g dex ([Fe/H], not Z)", f, minGridFeH, maxGridFeH)
+					}
 					rw.fe = v
 				}
 			case i == iQual:

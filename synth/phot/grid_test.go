@@ -124,7 +124,10 @@ func TestLoadGridErrors(t *testing.T) {
 		{"quality word", edit(func(l []string) []string { l[6] = strings.Replace(l[6], "model", "great", 1); return l }), "bad.tsv:7: quality \"great\""},
 		{"unknown blackbody band", edit(func(l []string) []string { l[6] = strings.Replace(l[6], "\t-\t", "\tr\t", 1); return l }), "bad.tsv:7: blackbody_bands names \"r\""},
 		{"column names", edit(func(l []string) []string { l[4] = strings.Replace(l[4], "teff_k", "teff", 1); return l }), "bad.tsv:5: column names start"},
-		{"negative teff", edit(func(l []string) []string { l[5] = strings.Replace(l[5], "4000", "-4000", 1); return l }), "bad.tsv:6: teff_k \"-4000\" K, want > 0 K"},
+		{"negative teff", edit(func(l []string) []string { l[5] = strings.Replace(l[5], "4000", "-4000", 1); return l }), "bad.tsv:6: teff_k \"-4000\" K, want 100 to 1e+07 K"},
+		{"log teff", edit(func(l []string) []string { l[5] = strings.Replace(l[5], "4000", "3.60", 1); return l }), "bad.tsv:6: teff_k \"3.60\" K, want 100 to 1e+07 K (kelvin, not log10)"},
+		{"linear g", edit(func(l []string) []string { l[5] = strings.Replace(l[5], "\t4\t", "\t27400\t", 1); return l }), "bad.tsv:6: logg_cgs \"27400\""},
+		{"Z for feh", edit(func(l []string) []string { l[5] = strings.Replace(l[5], "\t-1\t", "\t0.014e3\t", 1); return l }), "bad.tsv:6: feh \"0.014e3\" dex"},
 		{"no rows", strings.Join(lines[:5], "\n") + "\n", "bad.tsv: no data rows"},
 	}
 	for _, c := range cases {
