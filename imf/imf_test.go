@@ -497,7 +497,7 @@ func halfUnit(s string) float64 {
 // one-sample Kolmogorov–Smirnov test against the CDF at false-alarm rate
 // 1e-3: the asymptotic critical value is D = sqrt(-ln(alpha/2)/2)/sqrt(n)
 // = 1.949/sqrt(n) (Kolmogorov distribution; e.g. Press et al., Numerical
-// Recipes, 3rd ed., sec. 14.3.3). It also checks the sample mean against
+// Recipes, 3rd ed., sec. 14.3.3; section from memory). It also checks the sample mean against
 // Mean() within 4 standard errors (false-alarm rate 6e-5 for a normal mean),
 // and, as a second KS check with gonum, the two-sample statistic of
 // stat.KolmogorovSmirnov between the draws and the quantiles of an evenly
