@@ -8,6 +8,8 @@ import (
 	"unsafe"
 
 	"github.com/apache/arrow-go/v18/arrow"
+	"github.com/apache/arrow-go/v18/arrow/array"
+	"github.com/apache/arrow-go/v18/arrow/bitutil"
 	"github.com/apache/arrow-go/v18/arrow/flight"
 	"github.com/apache/arrow-go/v18/arrow/memory"
 	"github.com/apache/arrow-go/v18/parquet"
@@ -112,6 +114,7 @@ type colScratch struct {
 	i32  []int32
 	b    []bool
 	strs []parquet.ByteArray
+	dict *stringDict
 }
 
 func newParquetWriter(b *base) (*parquetWriter, error) {
@@ -254,6 +257,12 @@ func (w *parquetWriter) writeColumn(rg file.BufferedRowGroupWriter, b *Batch, c 
 		}
 		_, err = cw.(*file.BooleanColumnChunkWriter).WriteBatch(v, def, nil)
 	case []string:
+		if isDictEncoding(cw) {
+			if s.dict == nil {
+				s.dict = &stringDict{index: map[string]int32{}}
+			}
+			return s.dict.write(cw, col[:n], valid, def)
+		}
 		s.strs = s.strs[:0]
 		for i, x := range col[:n] {
 			if valid == nil || valid[i] {
@@ -305,4 +314,99 @@ func (w *parquetWriter) Close() error {
 // Abort discards the file.
 func (w *parquetWriter) Abort() error {
 	return w.abort()
+}
+
+// isDictEncoding reports whether the column writer currently dictionary-encodes.
+func isDictEncoding(cw file.ColumnChunkWriter) bool {
+	e := cw.CurrentEncoder().Encoding()
+	return e == parquet.Encodings.PlainDict || e == parquet.Encodings.RLEDict
+}
+
+// dictEncoder is the part of arrow-go's (internal) dictionary encoder used here.
+type dictEncoder interface {
+	NormalizeDict(arrow.Array) (arrow.Array, error)
+	PutDictionary(arrow.Array) error
+	NumEntries() int
+}
+
+// stringDict dictionary-encodes a string column chunk without allocating per row.
+// arrow-go's ByteArray dictionary encoder boxes every value on insertion (one heap
+// allocation per row); instead the dictionary of the batch is built here with a reused
+// Go map, handed to the encoder once with PutDictionary, and the rows are written as
+// int32 indices with WriteDictIndices - the same path pqarrow takes for Arrow dictionary
+// arrays. Dictionary order is first appearance, so the bytes are deterministic.
+type stringDict struct {
+	index  map[string]int32
+	words  []string
+	idx    []int32
+	bitmap []byte
+}
+
+func (d *stringDict) write(cw file.ColumnChunkWriter, vals []string, valid []bool, def []int16) error {
+	clear(d.index)
+	d.words = d.words[:0]
+	n := len(vals)
+	d.idx = grow(d.idx, n)
+	nulls := 0
+	for i, v := range vals {
+		if valid != nil && !valid[i] {
+			d.idx[i] = 0
+			nulls++
+			continue
+		}
+		k, ok := d.index[v]
+		if !ok {
+			k = int32(len(d.words))
+			d.index[v] = k
+			d.words = append(d.words, v)
+		}
+		d.idx[i] = k
+	}
+	mem := memory.DefaultAllocator
+	sb := array.NewStringBuilder(mem)
+	sb.AppendValues(d.words, nil)
+	dict := sb.NewStringArray()
+	sb.Release()
+	defer dict.Release()
+
+	enc, ok := cw.CurrentEncoder().(dictEncoder)
+	if !ok {
+		return fmt.Errorf("dictionary encoder not available for %s", cw.Descr().Name())
+	}
+	norm, err := enc.NormalizeDict(dict)
+	if err != nil {
+		return err
+	}
+	defer norm.Release()
+	if err := enc.PutDictionary(norm); err != nil {
+		return err
+	}
+	if enc.NumEntries() != len(d.words) {
+		return fmt.Errorf("dictionary of %d words became %d entries", len(d.words), enc.NumEntries())
+	}
+	if st := cw.PageStatistics(); st != nil {
+		st.IncNulls(int64(nulls))
+		st.IncNumValues(int64(n - nulls))
+		if err := st.UpdateFromArrow(norm, false); err != nil {
+			return err
+		}
+	}
+	var bufs []*memory.Buffer
+	if nulls > 0 {
+		d.bitmap = grow(d.bitmap, int(bitutil.BytesForBits(int64(n))))
+		clear(d.bitmap)
+		for i, ok := range valid {
+			if ok {
+				bitutil.SetBit(d.bitmap, i)
+			}
+		}
+		bufs = []*memory.Buffer{memory.NewBufferBytes(d.bitmap), memory.NewBufferBytes(arrow.Int32Traits.CastToBytes(d.idx))}
+	} else {
+		bufs = []*memory.Buffer{nil, memory.NewBufferBytes(arrow.Int32Traits.CastToBytes(d.idx))}
+	}
+	data := array.NewData(arrow.PrimitiveTypes.Int32, n, bufs, nil, nulls, 0)
+	indices := array.NewInt32Data(data)
+	data.Release()
+	defer indices.Release()
+	return cw.WriteDictIndices(indices, def, nil)
 }
