@@ -197,7 +197,7 @@ func TestBandRatioPhotonEnergyEquivalence(t *testing.T) {
 }
 
 // TestCCMTable3Synthetic: CCM89 Table 3 lists A_X/A_V for broad bands as
-// observed means (rows from memory in testdata/solar_and_calibration_values.tsv).
+// observed means (rows from memory in testdata/solar_and_calibration_ccm.tsv).
 // Synthetic photometry of the CCM89 law (R_V = 3.1) through the Bessell (1990)
 // UBV and 2MASS JHKs curves for a hot (20000 K) blackbody, A_V = 1, is within
 // 0.02 of them (brief's tolerance; the bands are not CCM's exact filters).

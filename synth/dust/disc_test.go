@@ -205,10 +205,10 @@ func BenchmarkExpDiscAV(b *testing.B) {
 }
 
 // TestDiscDefaultsMatchKit: the default constants equal the rows of the
-// reference kit's population_values.tsv they cite (copied to testdata).
+// reference kit's population_values.tsv they cite (excerpt in testdata/population_values_dust.tsv).
 func TestDiscDefaultsMatchKit(t *testing.T) {
 	t.Parallel()
-	_, rows := readTSV(t, "testdata/population_values.tsv")
+	_, rows := readTSV(t, "testdata/population_values_dust.tsv")
 	want := map[string]float64{
 		"A_V_per_kpc_local_plane":        DefaultAVPerKpc,
 		"dust_scale_height_lamost":       DefaultDustScaleHeightPc,

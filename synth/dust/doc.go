@@ -67,8 +67,8 @@
 //   - Cardelli, J. A., Clayton, G. C. & Mathis, J. S. 1989, ApJ 345, 245
 //     (CCM89): eqs. 1–5, Table 3.
 //   - O'Donnell, J. E. 1994, ApJ 422, 158: eq. 2 (optical coefficients).
-//   - Fitzpatrick, E. L. 1999, PASP 111, 63 (F99): section 3, Table 3, Table 4;
-//     revised optical anchors as distributed by the author (FM_UNRED convention).
+//   - Fitzpatrick, E. L. 1999, PASP 111, 63 (F99): section 3 and its spline anchor table;
+//     revised optical anchors as distributed by the author after publication.
 //   - Fitzpatrick, E. L. & Massa, D. 1990, ApJS 72, 163: UV parametrisation.
 //   - Li, L., Shen, S., Hou, J. et al. 2018, ApJ 858, 75 (volume/page from
 //     memory): exponential dust disc fitted to LAMOST stars, scale height 103 pc,

@@ -57,13 +57,13 @@ func TestLawsAgainstReferenceTable(t *testing.T) {
 
 // TestCCMTable3 compares CCM89 at R_V = 3.1, evaluated at the effective
 // wavelengths of CCM89 Table 3, with the Table 3 band ratios A_X/A_V. Source:
-// testdata/solar_and_calibration_values.tsv rows ccm_table3_* (copied from the
+// testdata/solar_and_calibration_ccm.tsv rows ccm_table3_* (copied from the
 // reference kit) which are FROM MEMORY, and the kit's own formula rows show that
 // the monochromatic formula departs from the tabulated (observed mean) ratios
 // by up to 0.012; tolerance 0.02 as the brief asks.
 func TestCCMTable3(t *testing.T) {
 	t.Parallel()
-	_, rows := readTSV(t, "testdata/solar_and_calibration_values.tsv")
+	_, rows := readTSV(t, "testdata/solar_and_calibration_ccm.tsv")
 	want := map[string]float64{}
 	formula := map[string]float64{}
 	for _, r := range rows {
