@@ -56,7 +56,7 @@ var hotNodesK = []float64{50000, 60000, 70000, 85000, 100000, 125000, 150000, 20
 
 // defaultLoggNodes: giant relations at ≤ 3.0, dwarf sequence 3.5–5.5, blackbody
 // (white dwarfs) at ≥ 6.5; linear in log g in between.
-var defaultLoggNodes = []float64{-1.5, 3.0, 3.5, 5.5, 6.5, 9.5}
+var defaultLoggNodes = []float64{-2.0, 3.0, 3.5, 5.5, 6.5, 10.0}
 
 // assembler holds the intermediate products of AssembleDefaultGrid.
 type assembler struct {

@@ -36,8 +36,8 @@
 // DefaultGrid is read from data/default_bc_grid.tsv, written by
 // AssembleDefaultGrid (a test checks that the two agree). Nodes: the 87
 // dwarf-sequence temperatures from M9.5V (2,330 K) to O3V (45,900 K) plus eight
-// blackbody nodes up to 200,000 K; log g nodes −1.5 and 3.0 (giants), 3.5 and
-// 5.5 (dwarfs and subgiants), 6.5 and 9.5 (white dwarfs); one [Fe/H] = 0 slice.
+// blackbody nodes up to 200,000 K; log g nodes −2.0 and 3.0 (giants), 3.5 and
+// 5.5 (dwarfs and subgiants), 6.5 and 10.0 (white dwarfs); one [Fe/H] = 0 slice.
 // Every node records its provenance (columns quality, blackbody_bands, source):
 //
 //   - Dwarfs (log g 3.5–5.5), 2,330–45,900 K: BC_V and colours of the mean dwarf

@@ -76,6 +76,54 @@ func LoadPassband(path string) (*Passband, error) {
 	return pb, nil
 }
 
+// NewPassband builds a passband from slices (copied), validated like a file:
+// at least two points, equal lengths, finite positive strictly increasing
+// wavelengths in Å, finite non-negative throughputs, not all zero. Errors wrap
+// ErrPassband and name the index.
+func NewPassband(name string, wavelengthAA, throughput []float64, photon bool, source string) (*Passband, error) {
+	if len(wavelengthAA) != len(throughput) {
+		return nil, fmt.Errorf("%w: %s: %d wavelengths but %d throughputs", ErrPassband, name, len(wavelengthAA), len(throughput))
+	}
+	if len(wavelengthAA) < 2 {
+		return nil, fmt.Errorf("%w: %s: %d points, want at least 2", ErrPassband, name, len(wavelengthAA))
+	}
+	pos := false
+	for i, l := range wavelengthAA {
+		t := throughput[i]
+		if math.IsNaN(l) || math.IsInf(l, 0) || l <= 0 {
+			return nil, fmt.Errorf("%w: %s: wavelength[%d] = %v angstrom, want a finite positive value", ErrPassband, name, i, l)
+		}
+		if i > 0 && l <= wavelengthAA[i-1] {
+			return nil, fmt.Errorf("%w: %s: wavelength[%d] = %v angstrom not above wavelength[%d] = %v angstrom", ErrPassband, name, i, l, i-1, wavelengthAA[i-1])
+		}
+		if math.IsNaN(t) || math.IsInf(t, 0) || t < 0 {
+			return nil, fmt.Errorf("%w: %s: throughput[%d] = %v, want a finite value >= 0", ErrPassband, name, i, t)
+		}
+		if t > 0 {
+			pos = true
+		}
+	}
+	if !pos {
+		return nil, fmt.Errorf("%w: %s: throughput is zero everywhere", ErrPassband, name)
+	}
+	pb := &Passband{Name: name, WavelengthAA: append([]float64(nil), wavelengthAA...),
+		Throughput: append([]float64(nil), throughput...), Photon: photon, Source: source}
+	pb.prepare()
+	return pb, nil
+}
+
+// quad returns the quadrature nodes and weights, building them for a Passband
+// that was assembled as a struct literal rather than by NewPassband or
+// LoadPassband (that path allocates).
+func (pb *Passband) quad() ([]float64, []float64) {
+	if len(pb.quadAA) > 0 {
+		return pb.quadAA, pb.quadW
+	}
+	c := Passband{WavelengthAA: pb.WavelengthAA, Throughput: pb.Throughput, Photon: pb.Photon}
+	c.prepare()
+	return c.quadAA, c.quadW
+}
+
 // parsePassband reads the table format described at LoadPassband. When
 // defaultPhoton is false a response_kind line is required.
 func parsePassband(r io.Reader, fileName string, defaultPhoton bool) (*Passband, error) {

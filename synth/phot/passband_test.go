@@ -130,3 +130,35 @@ func TestLoadPassbandErrors(t *testing.T) {
 		})
 	}
 }
+
+func TestNewPassband(t *testing.T) {
+	v, _ := LookupBand("V")
+	pb, err := NewPassband("v_copy", v.Curve.WavelengthAA, v.Curve.Throughput, false, "copy")
+	if err != nil {
+		t.Fatal(err)
+	}
+	f := func(float64) float64 { return 1e-27 }
+	if a, b := ABMagFNu(pb, f), ABMagFNu(v.Curve, f); a != b {
+		t.Errorf("copy %v vs built-in %v", a, b)
+	}
+	// a struct literal works too (quadrature built on the fly)
+	lit := &Passband{WavelengthAA: v.Curve.WavelengthAA, Throughput: v.Curve.Throughput}
+	if a, b := ABMagFNu(lit, f), ABMagFNu(v.Curve, f); math.Abs(a-b) > 1e-12 {
+		t.Errorf("literal %v vs built-in %v", a, b)
+	}
+	for _, c := range []struct {
+		name   string
+		wl, tr []float64
+	}{
+		{"lengths", []float64{1, 2}, []float64{1}},
+		{"short", []float64{1}, []float64{1}},
+		{"order", []float64{2, 1}, []float64{1, 1}},
+		{"negative", []float64{1, 2}, []float64{1, -1}},
+		{"nan", []float64{1, 2}, []float64{math.NaN(), 1}},
+		{"zero", []float64{1, 2}, []float64{0, 0}},
+	} {
+		if _, err := NewPassband(c.name, c.wl, c.tr, true, ""); !errors.Is(err, ErrPassband) {
+			t.Errorf("%s: error %v, want ErrPassband", c.name, err)
+		}
+	}
+}

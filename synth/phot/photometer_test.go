@@ -204,8 +204,8 @@ func TestOutsideGridAndNone(t *testing.T) {
 	}{
 		{"too cool", 2000, 5, 0, 1e-4, QualityOutsideGrid},
 		{"too hot", 3e5, 7, 0, 1, QualityOutsideGrid},
-		{"logg too high", 10000, 9.8, 0, 1e-3, QualityOutsideGrid},
-		{"logg too low", 3500, -2, 0, 1e4, QualityOutsideGrid},
+		{"logg too high", 10000, 10.2, 0, 1e-3, QualityOutsideGrid},
+		{"logg too low", 3500, -2.5, 0, 1e4, QualityOutsideGrid},
 		{"NaN logg", 5000, math.NaN(), 0, 1, QualityOutsideGrid},
 		{"NaN feh", 5000, 4, math.NaN(), 1, QualityOutsideGrid},
 		{"neutron star", math.NaN(), 14, 0, math.NaN(), QualityNone},

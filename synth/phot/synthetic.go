@@ -23,8 +23,9 @@ const abFNu = consts.ABZeroJy * consts.Jansky
 // spectrum that is zero in the band gives +Inf; negative band flux gives NaN.
 func ABMagFNu(pb *Passband, fNuWM2Hz func(lambdaAA float64) float64) float64 {
 	var num, den float64
-	for k, lam := range pb.quadAA {
-		w := pb.quadW[k] / (lam * lam) // S λ dλ × c/λ² (c cancels in the ratio)
+	xs, ws := pb.quad()
+	for k, lam := range xs {
+		w := ws[k] / (lam * lam) // S λ dλ × c/λ² (c cancels in the ratio)
 		num += w * fNuWM2Hz(lam)
 		den += w
 	}
@@ -40,10 +41,11 @@ func ABMagFNu(pb *Passband, fNuWM2Hz func(lambdaAA float64) float64) float64 {
 // (same definition as ABMagFNu with f_ν = F_λ λ²/c).
 func ABMagFLambda(pb *Passband, fLambdaWM3 func(lambdaAA float64) float64) float64 {
 	var num, den float64
-	for k, lam := range pb.quadAA {
+	xs, ws := pb.quad()
+	for k, lam := range xs {
 		lamM := lam * 1e-10
-		num += pb.quadW[k] * fLambdaWM3(lam)
-		den += pb.quadW[k] * abFNu * consts.C / (lamM * lamM)
+		num += ws[k] * fLambdaWM3(lam)
+		den += ws[k] * abFNu * consts.C / (lamM * lamM)
 	}
 	return -2.5 * math.Log10(num/den)
 }
