@@ -3,7 +3,6 @@ package synth
 import (
 	"math"
 
-	"github.com/starmock/starmock/evolve"
 	"github.com/starmock/starmock/internal/consts"
 	"github.com/starmock/starmock/synth/observe"
 )
@@ -41,7 +40,7 @@ const boundMarginMag = 3.0
 // binaryBoostMag is 2.5 log10 2: an equal-mass unresolved pair's brightening.
 var binaryBoostMag = 2.5 * math.Log10(2)
 
-func newDetectBound(p *Plan, cp *ComponentPlan, models map[int]*evolve.Model) (*detectBound, error) {
+func newDetectBound(p *Plan, cp *ComponentPlan) (*detectBound, error) {
 	lo, hi := cp.IMF.Bounds()
 	aLo, aHi := cp.Ages.Range()
 	fLo, fHi := cp.FeH.Range()
@@ -87,13 +86,9 @@ func newDetectBound(p *Plan, cp *ComponentPlan, models map[int]*evolve.Model) (*
 				feh = fLo + (fHi-fLo)*float64(jf)/float64(nFeH-1)
 			}
 			key, fq := quantiseFeH(feh)
-			mod, ok := models[key]
-			if !ok {
-				var err error
-				if mod, err = evolve.NewModel(evolve.ZFromFeH(fq)); err != nil {
-					return nil, err
-				}
-				models[key] = mod
+			mod, err := p.model(key, fq)
+			if err != nil {
+				return nil, err
 			}
 			for _, a := range ages {
 				st, err := mod.Evolve(m, a)

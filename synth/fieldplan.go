@@ -7,7 +7,6 @@ import (
 	"math/rand/v2"
 	"sort"
 
-	"github.com/starmock/starmock/evolve"
 	"github.com/starmock/starmock/synth/dust"
 	"github.com/starmock/starmock/synth/galaxy"
 )
@@ -212,18 +211,14 @@ func (s *Scenario) newFieldPlan(ctx context.Context, p *Plan, cp *ComponentPlan,
 	// companion), by Monte Carlo over 20000 primaries of the component (plan stream).
 	r := newStream(p.Seed, cp.Index, 1, streamPlan)
 	var sumInit, sumPresent float64
-	models := map[int]*evolve.Model{}
 	const nMC = 20000
 	for i := 0; i < nMC; i++ {
 		m := cp.IMF.Rand(r)
 		a := cp.Ages.Age(r)
 		key, fq := quantiseFeH(cp.FeH.FeH(r))
-		mod, ok := models[key]
-		if !ok {
-			if mod, err = evolve.NewModel(evolve.ZFromFeH(fq)); err != nil {
-				return nil, s.errf(path+".metallicity", "%v", err)
-			}
-			models[key] = mod
+		mod, err := p.model(key, fq)
+		if err != nil {
+			return nil, s.errf(path+".metallicity", "%v", err)
 		}
 		st, err := mod.Evolve(m, a)
 		if err != nil {
@@ -250,7 +245,7 @@ func (s *Scenario) newFieldPlan(ctx context.Context, p *Plan, cp *ComponentPlan,
 	f.cum = make([]int64, n+1)
 	var bound *detectBound
 	if *s.Field.SkipUndetectable {
-		if bound, err = newDetectBound(p, cp, models); err != nil {
+		if bound, err = newDetectBound(p, cp); err != nil {
 			return nil, s.errf(path, "%v", err)
 		}
 	}

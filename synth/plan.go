@@ -4,6 +4,9 @@ import (
 	"context"
 	"fmt"
 	"runtime"
+	"sync"
+
+	"github.com/starmock/starmock/evolve"
 
 	"github.com/starmock/starmock/imf"
 )
@@ -24,6 +27,29 @@ type Plan struct {
 	// Survey is the resolved survey (bands, photometry, extinction, noise).
 	Survey *SurveyPlan
 	field  *fieldShared
+
+	modelMu sync.Mutex
+	models  map[int]*evolve.Model // evolution models by rounded [Fe/H] (see quantiseFeH)
+}
+
+// model returns the evolution model of the rounded metallicity key (fehRounded dex),
+// building it once for the whole plan. Models are immutable, so workers share them;
+// which worker builds a model first does not change it.
+func (p *Plan) model(key int, fehRounded float64) (*evolve.Model, error) {
+	p.modelMu.Lock()
+	defer p.modelMu.Unlock()
+	if m, ok := p.models[key]; ok {
+		return m, nil
+	}
+	m, err := evolve.NewModel(evolve.ZFromFeH(fehRounded))
+	if err != nil {
+		return nil, err
+	}
+	if p.models == nil {
+		p.models = map[int]*evolve.Model{}
+	}
+	p.models[key] = m
+	return m, nil
 }
 
 // ComponentPlan is one component resolved.
@@ -132,7 +158,7 @@ func NewPlan(ctx context.Context, s *Scenario) (*Plan, error) {
 // streams chunk by chunk (the same draws the workers make later) and applies the "stop
 // nearest" rule of imf.SampleTotalMass: the star whose mass makes the running sum reach
 // the target is kept if that leaves the total closer to the target, and dropped
-// otherwise. It returns the count and the realised total initial mass.
+// otherwise (imf.StopNearest). It returns the count and the realised total initial mass.
 func countForMass(ctx context.Context, seed uint64, comp, chunkSize int, f imf.IMF, targetMsun float64) (int64, float64) {
 	var n int64
 	sum := 0.0
@@ -143,15 +169,14 @@ func countForMass(ctx context.Context, seed uint64, comp, chunkSize int, f imf.I
 		r := newStream(seed, comp, k, streamMass)
 		for j := 0; j < chunkSize; j++ {
 			m := f.Rand(r)
-			if sum+m >= targetMsun {
-				if sum+m-targetMsun <= targetMsun-sum {
-					n++
-					sum += m
-				}
+			keep, stop := imf.StopNearest(sum, m, targetMsun)
+			if keep {
+				n++
+				sum += m
+			}
+			if stop {
 				return n, sum
 			}
-			n++
-			sum += m
 		}
 	}
 }

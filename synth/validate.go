@@ -135,6 +135,7 @@ func (s *Scenario) validateComponent(p string, c *Component) error {
 		if c.DensityScale == 0 {
 			c.DensityScale = 1
 		}
+		galacticDefaults(c)
 		if c.DensityScale < 0 || !finite(c.DensityScale) {
 			return s.errf(p+".density_scale", "%g is out of range; allowed: > 0", c.DensityScale)
 		}

@@ -57,7 +57,7 @@ func (w *worker) model(key int, feh float64) (*evolve.Model, error) {
 	if m, ok := w.models[key]; ok {
 		return m, nil
 	}
-	m, err := evolve.NewModel(evolve.ZFromFeH(feh))
+	m, err := w.plan.model(key, feh)
 	if err != nil {
 		return nil, err
 	}
