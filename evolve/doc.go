@@ -44,7 +44,7 @@
 //     stars whose envelope is lost on the first giant branch become helium
 //     white dwarfs.
 //
-// Mass loss: Reimers (1975) with η = 0.5 on the giant branches (integrated in
+// Mass loss: Reimers (1975) with η = 0.4 on the giant branches (integrated in
 // closed form on the first giant branch), Nieuwenhuijzen & de Jager (1990)
 // scaled by (Z/0.02)^0.5 above 4000 Lsun, HPT's LBV term, a clumping-reduced
 // Wolf–Rayet rate for naked helium stars; on the AGB the envelope is removed so

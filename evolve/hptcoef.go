@@ -129,14 +129,26 @@ func (h *hpt) rTMS(m float64) float64 {
 		m3 := m * m * m
 		return (c1*m3 + a[23]*p + a[24]*p*m*math.Sqrt(m)) / (a[25] + m3*m*m)
 	}
+	m1, m2 := a[17], a[17]+0.1
+	if low(m1) > high(m2) {
+		// Deviation from HPT: with the remembered coefficients the low-mass
+		// branch overshoots at low Z (R_TMS falls by up to a factor 3 across the
+		// bridge at Z = 1e-4). There the bridge starts at min(1, a17) Msun and
+		// is geometric, so R_TMS stays continuous and bounded.
+		m1 = math.Min(1, a[17])
+		if m > m1 && m < m2 {
+			r0, r1 := low(m1), high(m2)
+			return r0 * math.Pow(r1/r0, (m-m1)/(m2-m1))
+		}
+	}
 	switch {
-	case m <= a[17]:
+	case m <= m1:
 		return low(m)
-	case m >= a[17]+0.1:
+	case m >= m2:
 		return high(m)
 	default:
-		r0, r1 := low(a[17]), high(a[17]+0.1)
-		return r0 + (r1-r0)*(m-a[17])/0.1
+		r0, r1 := low(m1), high(m2)
+		return r0 + (r1-r0)*(m-m1)/(m2-m1)
 	}
 }
 

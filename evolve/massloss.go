@@ -6,7 +6,7 @@ import "math"
 // analytically along the analytic tracks instead of being integrated step by
 // step (this package evaluates a star at one age, with no history):
 //
-//   - Reimers (1975): Ṁ = 4e-13 η L R / M  Msun/yr, η = 0.5, on the giant
+//   - Reimers (1975): Ṁ = 4e-13 η L R / M  Msun/yr, η = 0.4, on the giant
 //     branches. On the first giant branch it is integrated exactly along the
 //     core-mass–luminosity relation: with R = 1.1 M^-0.3 f(L) and
 //     dMc/dt = A_H L, M^1.3 dM = −(4e-13 η / A_H) 1.1 f(L(Mc)) dMc, so
@@ -22,7 +22,12 @@ import "math"
 // Simpson rule over each phase at the phase's start mass (an approximation
 // of this package). On the AGB the envelope is removed so that the star ends
 // with the white-dwarf mass of the Cummings et al. (2018) relation (see agb.go).
-const reimersEta = 0.5
+//
+// HPT take η = 0.5; we take η = 0.4, the classic value calibrated on
+// globular-cluster horizontal branches (common practice), because with 0.5
+// the 0.83 Msun progenitors at the low end of the Cummings et al. (2018)
+// relation would end their giant branch below their observed white-dwarf mass.
+const reimersEta = 0.4
 
 // mdotMsunPerMyr returns the wind mass-loss rate in Msun/Myr.
 func mdotMsunPerMyr(lumLsun, radiusRsun, massMsun, zFactor float64, giant bool) float64 {
