@@ -49,7 +49,7 @@ type BandTable struct {
 // Errors: a malformed passband (ErrPassband), a curve with throughput outside
 // the law's range or a pivot outside it (ErrWavelengthRange), a pivot-only
 // band without a pivot. Panics if pivotsAA is neither nil nor len(pbs) long
-// (a programming error). Building takes about 0.3–0.4 s for the 16 standard
+// (a programming error). Building takes about 0.2–0.4 s for the 16 standard
 // bands on a 2-core machine (spread over GOMAXPROCS goroutines) and 130 kB
 // per band.
 func NewBandTable(law Law, pbs []Passband, pivotsAA []float64) (*BandTable, error) {
