@@ -133,13 +133,19 @@ func Run(ctx context.Context, s *synth.Scenario, opts Options) (*Report, error) 
 	for _, name := range s.Output.Formats {
 		f, _ := output.ParseFormat(name)
 		path := paths[name]
-		if dir := filepath.Dir(path); dir != "" {
-			if err := os.MkdirAll(dir, 0o755); err != nil {
-				abort()
-				return nil, fmt.Errorf("output path %s: %w", path, err)
+		var w output.Writer
+		var err error
+		if opts.ShardCount > 0 {
+			w, err = output.CreatePart(f, filepath.Dir(path), opts.ShardIndex, outCols, man, output.Options{})
+		} else {
+			if dir := filepath.Dir(path); dir != "" {
+				if err := os.MkdirAll(dir, 0o755); err != nil {
+					abort()
+					return nil, fmt.Errorf("output path %s: %w", path, err)
+				}
 			}
+			w, err = output.Create(f, path, outCols, man)
 		}
-		w, err := output.Create(f, path, outCols, man)
 		if err != nil {
 			abort()
 			return nil, fmt.Errorf("output path %s: %w", path, err)

@@ -172,6 +172,7 @@ func (w *worker) fill(ch ChunkRef, b *output.Batch) error {
 			gl[j], gb[j] = l, bb
 			ra[j], dec[j] = galaxy.GalacticToICRS(l, bb)
 			vld(cEast)[j], vld(cNorth)[j], vld(cDepth)[j] = false, false, false
+			east[j], north[j], depth[j] = 0, 0, 0 // null: keep the bytes under nulls deterministic
 			d = dpc
 			if avBase, err = cp.ext.field.av(l, bb, d, w.dust); err != nil {
 				return fmt.Errorf("component %s: %w", cp.Name, err)
@@ -214,6 +215,7 @@ func (w *worker) fill(ch ChunkRef, b *output.Batch) error {
 			vld(c)[j] = false
 		}
 		vld(cCompMassInit)[j] = cv
+		cmi[j], cm[j], clum[j], cteff[j] = 0, 0, 0, 0 // values under nulls are written by some formats
 		cst[j] = ""
 		light2 := false
 		if cv {

@@ -14,14 +14,16 @@ import (
 // (uniform, step TableAVStepMag). The spacing was chosen from the measured
 // bilinear interpolation error (TestBandTableInterpolationError): with these
 // values the largest error over the 16 standard bands (Bessell UBVRI, 2MASS
-// JHKs, SDSS ugriz, Gaia G/BP/RP) is 3.7e-4 in A_X/A_V, reached in SDSS u for
+// JHKs, SDSS ugriz, Gaia G/BP/RP) is 4.2e-4 in A_X/A_V, reached in SDSS u for
 // the coolest stars (its red leak near 7700 Å makes the coefficient vary fast
-// with Teff); all other bands stay below 2.5e-4 and most below 1e-5.
+// with Teff); all other bands stay below 2.7e-4 and most below 1e-5. The range
+// 1000–300000 K covers old cool white dwarfs and hot young ones, which the
+// pipeline meets in every old population (the exact path costs ~1 ms a star).
 const (
-	TableMinTeffK  = 2000.0
-	TableMaxTeffK  = 100000.0
+	TableMinTeffK  = 1000.0
+	TableMaxTeffK  = 300000.0
 	TableMaxAVMag  = 20.0
-	TableTeffNodes = 201
+	TableTeffNodes = 293
 	TableAVStepMag = 0.25
 )
 
