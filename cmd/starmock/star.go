@@ -43,7 +43,7 @@ metallicity_z, feh).
 Examples:
   starmock star --mass 1 --age 4.57Gyr --feh 0
   starmock star --mass 1 --age 4.57Gyr --z 0.02 --json
-  starmock star --mass 2.5 --age 700Myr --feh -0.5
+  starmock star --mass 2.5 --age 600Myr --feh -0.5
   starmock star --teff 4800 --luminosity 50 --logg 2.5 --feh -0.2 --json`
 
 // starOptions holds the parsed flags of the star command.

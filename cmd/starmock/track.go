@@ -203,7 +203,7 @@ func writeTrackCSV(path string, stdout io.Writer, tracks [][]trackPoint) (err er
 	}
 	bw := bufio.NewWriter(w)
 	fmt.Fprintln(bw, "initial_mass_msun,age_yr,stage,mass_msun,luminosity_lsun,teff_k,radius_rsun,logg_cgs,core_mass_msun")
-	g := func(x float64) string { return strconv.FormatFloat(x, 'g', 8, 64) }
+	g := func(x float64) string { return strconv.FormatFloat(x, 'g', -1, 64) } // shortest exact form
 	for _, tr := range tracks {
 		for _, p := range tr {
 			s := p.star
