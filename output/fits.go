@@ -83,8 +83,9 @@ func (h *fitsHeader) card(key, value, comment string) {
 	h.b = append(h.b, fmt.Sprintf("%-80s", line)...)
 }
 
-// fitsString quotes a character value (Standard 4.0 §4.2.1.1): single quotes doubled,
-// padded to at least 8 characters, truncated to fit one card (68 characters).
+// fitsString quotes a character value that fits on one card (Standard 4.0 §4.2.1.1):
+// single quotes doubled, padded to at least 8 characters. Callers keep values short
+// (keywords, names, units); longer text goes through longString.
 func fitsString(s string) string {
 	s = strings.ReplaceAll(s, "'", "''")
 	if len(s) > 68 {
@@ -94,6 +95,52 @@ func fitsString(s string) string {
 		}
 	}
 	return fmt.Sprintf("'%-8s'", s)
+}
+
+// longString writes a string value of any length with the long-string convention
+// (HEASARC OGIP 1.0 CONTINUE convention, adopted in FITS Standard 4.0 §4.2.1.2): each
+// card but the last ends its string with '&' and the text continues in CONTINUE cards.
+// Escaped quotes are never split across cards.
+//
+// In strings that need CONTINUE cards, single quotes are written as double quotes:
+// astropy 5.2 drops text from continued strings that contain doubled quotes (seen with
+// Debian's python3-astropy 5.2.1). The exact text is in the manifest, which ReadFile
+// prefers.
+func (h *fitsHeader) longString(key, value string) {
+	esc := strings.ReplaceAll(value, "'", "''")
+	if len(esc) <= 68 {
+		h.card(key, fitsString(value), "")
+		return
+	}
+	esc = strings.ReplaceAll(value, "'", "\"")
+	const chunk = 67 // 80 - 10 (key and "= ") - 2 quotes - 1 ampersand
+	first := true
+	for len(esc) > 0 {
+		n := min(chunk, len(esc))
+		if n < len(esc) {
+			// do not end a chunk inside a doubled quote
+			q := 0
+			for i := n - 1; i >= 0 && esc[i] == '\''; i-- {
+				q++
+			}
+			if q%2 == 1 {
+				n--
+			}
+		}
+		part := esc[:n]
+		esc = esc[n:]
+		if len(esc) > 0 {
+			part += "&"
+		}
+		var line string
+		if first {
+			line = fmt.Sprintf("%-8s= '%s'", key, part)
+			first = false
+		} else {
+			line = fmt.Sprintf("CONTINUE  '%s'", part)
+		}
+		h.b = append(h.b, fmt.Sprintf("%-80s", line)...)
+	}
 }
 
 func fitsLogical(v bool) string {
@@ -180,10 +227,11 @@ func newFITSWriter(b *base) (*fitsWriter, error) {
 			t.card("TNULL"+n, fitsInt(w.nulls[i]), "null value")
 		}
 		if c.Description != "" {
-			t.card("TCOMM"+n, fitsString(c.Description), "")
+			t.longString("TCOMM"+n, c.Description)
 		}
 	}
 	t.card("EXTNAME", fitsString("CATALOG"), "synthetic catalogue")
+	t.card("LONGSTRN", fitsString("OGIP 1.0"), "CONTINUE cards hold long strings")
 	w.commonCards(&t, m)
 	hdr = append(hdr, t.end()...)
 	if _, err := b.file.buf.Write(hdr); err != nil {

@@ -31,14 +31,15 @@ func (h *fitsHDU) int(key string) (int64, error) {
 }
 
 // parseFITS splits a FITS file into HDUs (Standard 4.0 §3.3, §4.1). It understands the
-// fixed-format value cards written by this package and by common FITS writers; CONTINUE
-// and HIERARCH cards are ignored.
+// fixed-format value cards written by this package and by common FITS writers,
+// including CONTINUE long strings; HIERARCH cards are ignored.
 func parseFITS(data []byte) ([]fitsHDU, error) {
 	var hdus []fitsHDU
 	off := 0
 	for off < len(data) {
 		h := fitsHDU{values: map[string]string{}}
 		ended := false
+		last := ""
 		for !ended {
 			if off+80 > len(data) {
 				return nil, fmt.Errorf("HDU %d: header not terminated by END", len(hdus))
@@ -50,10 +51,19 @@ func parseFITS(data []byte) ([]fitsHDU, error) {
 				ended = true
 				break
 			}
+			if key == "CONTINUE" {
+				// long-string convention (Standard 4.0 §4.2.1.2)
+				if v, ok := h.values[last]; ok && strings.HasSuffix(v, "&") && strings.HasPrefix(strings.TrimSpace(card[8:]), "'") {
+					h.values[last] = strings.TrimSuffix(v, "&") + cardValue(card[8:])
+				}
+				continue
+			}
 			if card[8:10] != "= " {
+				last = ""
 				continue // COMMENT, HISTORY, blank
 			}
 			h.values[key] = cardValue(card[10:])
+			last = key
 		}
 		off += (fitsBlock - off%fitsBlock) % fitsBlock
 		bitpix, err := h.int("BITPIX")
@@ -150,9 +160,11 @@ func readFITS(path string) (*Table, error) {
 		return nil, errors.New("no BINTABLE extension")
 	}
 	nullable := map[string]bool{}
+	desc := map[string]string{}
 	if t.Manifest != nil {
 		for _, c := range t.Manifest.Columns {
 			nullable[c.Name] = c.Nullable
+			desc[c.Name] = c.Description
 		}
 	}
 	ncol, err := tab.int("TFIELDS")
@@ -176,6 +188,9 @@ func readFITS(path string) (*Table, error) {
 		n := strconv.Itoa(i + 1)
 		c := Column{Name: tab.values["TTYPE"+n], Unit: tab.values["TUNIT"+n], Description: tab.values["TCOMM"+n]}
 		c.Nullable = nullable[c.Name]
+		if d, ok := desc[c.Name]; ok {
+			c.Description = d // exact text (TCOMMn may have quotes replaced, see longString)
+		}
 		form := strings.TrimSpace(tab.values["TFORM"+n])
 		width := 0
 		switch {

@@ -26,7 +26,7 @@ func testColumns() []Column {
 		{Name: "stage", Kind: String, MaxLen: 32, Description: "evolutionary stage"},
 		{Name: "spectral_type", Kind: String, MaxLen: 8, Nullable: true, Description: "MK spectral type, null outside the table"},
 		{Name: "g_mag", Unit: "mag", Kind: Float32, Nullable: true, Description: "observed g magnitude, null if not detected"},
-		{Name: "g_flux", Unit: "mJy", Kind: Float64, Nullable: true, Description: "observed g flux"},
+		{Name: "g_flux", Unit: "mJy", Kind: Float64, Nullable: true, Description: "observed g flux in the survey's own 'g' band, null when the star is not detected; a description longer than one FITS card (CONTINUE convention), with quotes ''"},
 		{Name: "binary", Kind: Bool, Description: "unresolved binary"},
 		{Name: "g_detected", Kind: Bool, Nullable: true, Description: "detected in g"},
 		{Name: "quality", Kind: Int8, Nullable: true, Description: "photometry quality code"},

@@ -228,13 +228,18 @@ func (w *parquetWriter) writeColumn(cw file.ColumnChunkWriter, b *Batch, c int) 
 	if w.cols[c].Nullable {
 		s.def = grow(s.def, n)
 		def = s.def
+		nulls := 0
 		for i := range def {
 			def[i] = 1
 		}
 		for i, ok := range valid {
 			if !ok {
 				def[i] = 0
+				nulls++
 			}
+		}
+		if nulls == 0 {
+			valid = nil // no null in this batch: write the values without compaction
 		}
 	}
 	switch col := b.Cols[c].(type) {
