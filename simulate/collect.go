@@ -19,7 +19,9 @@ import (
 // true star; and a fixed-size random sample of detected stars for the colour–magnitude
 // diagram. Memory is fixed by the binning and the sample size, not by the star count.
 //
-// Realised counts are binned by observed magnitude; expected counts by true magnitude,
+// Stars are labelled by the stage of the member that dominates the light of the system
+// (column dominant_stage), so an unresolved white dwarf with a brighter main-sequence
+// companion counts as main sequence. Realised counts are binned by observed magnitude; expected counts by true magnitude,
 // each star weighted by its detection probability in that band (package observe), so
 // their sum is the expected number of detections given the simulated population.
 type Collector struct {
@@ -84,7 +86,7 @@ func (c *Collector) MagLabel() string { return fmt.Sprintf("%s [mag]", c.bands[c
 // Add takes one batch with the plan's full columns.
 func (c *Collector) Add(b *output.Batch, cols []output.Column) error {
 	comp := b.Cols[1].([]string)
-	stage := b.Cols[2].([]string)
+	stage := b.Cols[synth.DominantStageColumn].([]string)
 	det := b.Cols[len(cols)-1].([]bool)
 	sp := c.plan.Survey
 	app := func(k int) []float32 { return b.Cols[synth.BandColumn(k, 1)].([]float32) }

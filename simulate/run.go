@@ -26,6 +26,8 @@ type Options struct {
 	OutPath string
 	// Progress, when not nil, is called after each chunk with stars done and total.
 	Progress func(done, total int64)
+	// NoCatalogue runs the pipeline without writing a catalogue (forecasts).
+	NoCatalogue bool
 	// OnPlan, when not nil, is called once the plan is resolved, before any star is made.
 	OnPlan func(p *synth.Plan) error
 	// OnBatch, when not nil, sees every batch after it is written (for summaries and
@@ -130,7 +132,11 @@ func Run(ctx context.Context, s *synth.Scenario, opts Options) (*Report, error) 
 			_ = w.Abort()
 		}
 	}
-	for _, name := range s.Output.Formats {
+	formats := s.Output.Formats
+	if opts.NoCatalogue {
+		formats = nil
+	}
+	for _, name := range formats {
 		f, _ := output.ParseFormat(name)
 		path := paths[name]
 		var w output.Writer
@@ -221,7 +227,7 @@ func Run(ctx context.Context, s *synth.Scenario, opts Options) (*Report, error) 
 		}
 	}
 	names := make([]string, 0, len(paths))
-	for _, name := range s.Output.Formats {
+	for _, name := range formats {
 		names = append(names, paths[name])
 	}
 	sort.Strings(names)

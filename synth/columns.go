@@ -52,6 +52,7 @@ func catalogueColumns(bands []string) []output.Column {
 		{Name: "companion_stage", Description: "evolutionary stage of the companion (null if single or below the evolution model's mass range)", Kind: output.String, MaxLen: 28, Nullable: true, Encoding: output.EncodingDictionary},
 		f32("companion_luminosity_lsun", "solLum", "luminosity of the companion (null if single)"),
 		f32("companion_teff_k", "K", "effective temperature of the companion (null if single)"),
+		str("dominant_stage", "stage of the member with the larger bolometric luminosity: what the light of the system shows (truth)", 28),
 	}
 	for _, b := range bands {
 		cols = append(cols,
@@ -107,3 +108,6 @@ func SelectColumns(cols []output.Column, want []string) ([]int, error) {
 // BandColumn returns the position in Plan.Columns of per-band column j (0 abs_mag, 1
 // app_mag, 2 mag, 3 mag_err, 4 flux, 5 flux_err, 6 detected, 7 saturated) of band k.
 func BandColumn(k, j int) int { return nFixedCols + perBandCols*k + j }
+
+// DominantStageColumn is the position of the dominant_stage column in Plan.Columns.
+const DominantStageColumn = cDomStage

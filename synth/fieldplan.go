@@ -314,3 +314,11 @@ func meanCompanionMass(cp *ComponentPlan) float64 {
 	}
 	return eq * sum
 }
+
+// Area returns the field's sky area, or nil when the plan has no Galactic component.
+func (p *Plan) Area() galaxy.Area {
+	if p.field == nil {
+		return nil
+	}
+	return p.field.area
+}

@@ -99,6 +99,7 @@ const (
 	cCompStage
 	cCompLum
 	cCompTeff
+	cDomStage
 	nFixedCols
 	perBandCols = 8
 )
@@ -128,6 +129,7 @@ func (w *worker) fill(ch ChunkRef, b *output.Batch) error {
 	isBin := b.Cols[cBinary].([]bool)
 	cmi, cm, cst, clum, cteff := f32(cCompMassInit), f32(cCompMass), b.Cols[cCompStage].([]string), f32(cCompLum), f32(cCompTeff)
 	detAll := b.Cols[nFixedCols+perBandCols*w.nb].([]bool)
+	dom := b.Cols[cDomStage].([]string)
 
 	for j := 0; j < ch.N; j++ {
 		starIdx := ch.First + int64(j)
@@ -218,6 +220,7 @@ func (w *worker) fill(ch ChunkRef, b *output.Batch) error {
 		cmi[j], cm[j], clum[j], cteff[j] = 0, 0, 0, 0 // values under nulls are written by some formats
 		cst[j] = ""
 		light2 := false
+		dom[j] = stage[j]
 		if cv {
 			cmi[j] = float32(m2)
 			if m2 >= minEvolveMass {
@@ -231,6 +234,9 @@ func (w *worker) fill(ch ChunkRef, b *output.Batch) error {
 				vld(cCompLum)[j], vld(cCompTeff)[j] = light2, light2
 				if light2 {
 					w.photometry(s2, fq, avj, cp.ext, w.absC, w.ratC)
+				}
+				if light2 && (!light1 || s2.LuminosityLsun > s1.LuminosityLsun) {
+					dom[j] = cst[j]
 				}
 			}
 		}
