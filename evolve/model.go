@@ -204,6 +204,7 @@ type track struct {
 	tHe, lHe0, lHe1     float64
 	loop                float64
 	dMHe, mcBAGB, mBAGB float64
+	hd0, hd1, hd2       float64 // core-He-burning wind rate at τ = 0, 0.5, 1, Msun/Myr
 	tauStrip, mStrip    float64 // fractional CHeB age at which the envelope is gone (> 1: never), and the mass then
 	ccsn                bool
 	tLate, dMLate       float64
@@ -278,17 +279,25 @@ func (m *Model) msLR(t *track, tau float64) (lumLsun, radiusRsun float64) {
 	return
 }
 
-// msMassLost is the mass lost by winds up to fractional MS age τ: the
-// piecewise-linear rate through τ = 0, 0.5, 1 integrated exactly.
-func (t *track) msMassLost(tau float64) float64 {
-	var s float64
+// cumLinear integrates exactly, from 0 to τ, a rate that is piecewise linear
+// through its values r0, r1, r2 at τ = 0, 0.5, 1.
+func cumLinear(r0, r1, r2, tau float64) float64 {
 	if tau <= 0.5 {
-		s = t.md0*tau + (t.md1-t.md0)*tau*tau
-	} else {
-		u := tau - 0.5
-		s = 0.25*(t.md0+t.md1) + t.md1*u + (t.md2-t.md1)*u*u
+		return r0*tau + (r1-r0)*tau*tau
 	}
-	return math.Min(s*t.tMS, 0.5*t.m0) // cap: never more than half the star on the MS
+	u := tau - 0.5
+	return 0.25*(r0+r1) + r1*u + (r2-r1)*u*u
+}
+
+// msMassLost is the mass lost by winds up to fractional MS age τ (cumLinear
+// of the rates at τ = 0, 0.5, 1), capped at half the initial mass.
+func (t *track) msMassLost(tau float64) float64 {
+	return math.Min(cumLinear(t.md0, t.md1, t.md2, tau)*t.tMS, 0.5*t.m0)
+}
+
+// heMassLost is the mass lost by winds during core helium burning up to τ.
+func (t *track) heMassLost(tau float64) float64 {
+	return cumLinear(t.hd0, t.hd1, t.hd2, tau) * t.tHe
 }
 
 func clamp01(x float64) float64 { return math.Max(0, math.Min(1, x)) }
@@ -321,7 +330,9 @@ func (m *Model) fill(t *track) {
 	} else {
 		t.mcBGB = mcBGBHigh(m.cBGB, mass, mcBA)                    // HPT eq. (44)
 		t.mcHeI = math.Max(mcBGBHigh(m.cHeI, mass, mcBA), t.mcBGB) // eq. (44) form with C at He ignition
-		t.lHeI = math.Max(t.lHeI, t.lBGB)
+		if mass < h.mFGB {
+			t.lHeI = math.Max(t.lHeI, t.lBGB) // He ignites on the giant branch, above its base
+		}
 	}
 	t.mcBGB = math.Min(t.mcBGB, t.mTMS) // a core never exceeds the star
 	t.mcHeI = math.Min(t.mcHeI, t.mTMS)
@@ -392,26 +403,39 @@ func (m *Model) fill(t *track) {
 		t.lHe0, t.lHe1 = m.lZAHB, 2*m.lZAHB
 		t.tHe = math.Min(0.6*tHeMSMyr(t.mcHeI), heliumBurningFraction(mass)*t.tBGB) // this package, see doc.go
 	} else {
-		t.lHe0, t.lHe1 = t.lHeI, 2*t.lHeI
+		// L rises by a factor 2 during core He burning up to 5 Msun, falling to
+		// 1.4 at 20 Msun and above (this package; detailed tracks, from memory)
+		rise := 2 - 0.6*clamp01(math.Log(mass/5)/math.Log(4))
+		t.lHe0, t.lHe1 = t.lHeI, rise*t.lHeI
 		t.tHe = heliumBurningFraction(mass) * t.tBGB
 	}
 	if !t.degenerate && !t.hgToHe { // blue-loop amplitude (this package): largest between 5 and M_FGB − 2
 		t.loop = 0.6 * clamp01((mass-3)/2) * clamp01((h.mFGB-mass)/2)
 	}
 	t.mcBAGB = math.Min(math.Max(mcBA, t.mcHeI), t.mHeI)
-	var md float64
-	for i, w := range [3]float64{1, 4, 1} { // Simpson's rule over the phase
+	var hd [3]float64 // wind rate at τ = 0, 0.5, 1 at the start mass (this package's approximation)
+	for i := range hd {
 		l, r := m.chebLR(t, 0.5*float64(i), t.mHeI)
-		md += w * mdotMsunPerMyr(l, r, t.mHeI, m.zWind, true) / 6
+		hd[i] = mdotMsunPerMyr(l, r, t.mHeI, m.zWind, true)
 	}
-	t.dMHe = md * t.tHe
+	t.hd0, t.hd1, t.hd2 = hd[0], hd[1], hd[2]
+	t.dMHe = t.heMassLost(1)
 	t.tauStrip = 2 // never
 	if t.mHeI-t.dMHe <= t.mcBAGB {
-		// The envelope is gone at τs where M(τ) = Mc(τ) (both linear in τ);
+		// The envelope is gone at τs where M(τ) = Mc(τ) (found by bisection);
 		// from then on the star is a naked helium star losing mass by a
 		// Wolf–Rayet wind (wrMass).
-		t.tauStrip = clamp01((t.mHeI - t.mcHeI) / (t.dMHe + t.mcBAGB - t.mcHeI))
-		t.mStrip = t.mHeI - t.dMHe*t.tauStrip
+		lo, hi := 0.0, 1.0
+		for range 40 {
+			mid := 0.5 * (lo + hi)
+			if t.mHeI-t.heMassLost(mid) > t.mcHeI+(t.mcBAGB-t.mcHeI)*mid {
+				lo = mid
+			} else {
+				hi = mid
+			}
+		}
+		t.tauStrip = lo
+		t.mStrip = t.mHeI - t.heMassLost(lo)
 		t.mBAGB = m.wrMass(t.mStrip, (1-t.tauStrip)*t.tHe)
 		t.mcBAGB = t.mBAGB
 	} else {
@@ -611,7 +635,7 @@ func (m *Model) post(t *track, tm float64) Star {
 			l, r := heZAMS(mass)
 			return finish(HeliumMainSequence, mass, l, r, mass, tau)
 		}
-		mass := t.mHeI - t.dMHe*tau
+		mass := t.mHeI - t.heMassLost(tau)
 		mc := t.mcHeI + (t.mcBAGB-t.mcHeI)*tau
 		l, r := m.chebLR(t, tau, mass)
 		return finish(CoreHeliumBurning, mass, l, r, mc, tau)
