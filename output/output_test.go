@@ -277,10 +277,12 @@ func TestDeterministic(t *testing.T) {
 func TestAbortLeavesNothing(t *testing.T) {
 	for _, f := range allFormats {
 		t.Run(f.String(), func(t *testing.T) {
+			mem := memory.NewCheckedAllocator(memory.NewGoAllocator())
+			defer mem.AssertSize(t, 0)
 			dir := t.TempDir()
 			path := filepath.Join(dir, "cat"+f.Extension())
 			cols := testColumns()
-			w, err := Create(f, path, cols, nil)
+			w, err := CreateWithOptions(f, path, cols, nil, Options{Allocator: mem})
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -495,5 +497,52 @@ func TestDataset(t *testing.T) {
 	}
 	if _, err := ReadDataset(t.TempDir(), Parquet, nil); err == nil {
 		t.Error("empty folder read as a dataset")
+	}
+}
+
+// TestWriteFailureLeavesNothing simulates a failing disk (the temporary file is closed
+// under the writer): the error sticks, Close reports it, and neither the final file nor
+// the temporary nor a sidecar is left.
+func TestWriteFailureLeavesNothing(t *testing.T) {
+	for _, f := range allFormats {
+		t.Run(f.String(), func(t *testing.T) {
+			dir := t.TempDir()
+			path := filepath.Join(dir, "cat"+f.Extension())
+			cols := testColumns()
+			w, err := Create(f, path, cols, nil)
+			if err != nil {
+				t.Fatal(err)
+			}
+			var af *atomicFile
+			switch v := w.(type) {
+			case *parquetWriter:
+				af = v.file
+			case *ipcWriter:
+				af = v.file
+			case *fitsWriter:
+				af = v.file
+			case *ecsvWriter:
+				af = v.file
+			}
+			af.f.Close()
+			b := NewBatch(cols, 5000)
+			fillBatch(b, 5000, 0, rand.New(rand.NewPCG(1, 1)))
+			var werr error
+			for range 20 { // enough bytes to overflow the 1 MiB buffer
+				if werr = w.Write(b); werr != nil {
+					break
+				}
+			}
+			if werr != nil {
+				if err := w.Write(b); err == nil || errors.Is(err, ErrClosed) {
+					t.Errorf("error did not stick: %v", err)
+				}
+			}
+			cerr := w.Close()
+			if cerr == nil {
+				t.Error("Close succeeded after a write error")
+			}
+			assertOnlyFiles(t, dir)
+		})
 	}
 }

@@ -124,7 +124,7 @@ type colScratch struct {
 }
 
 func newParquetWriter(b *base) (*parquetWriter, error) {
-	props := parquetProps(b.cols, b.opts.Compression, memory.DefaultAllocator)
+	props := parquetProps(b.cols, b.opts.Compression, b.opts.Allocator)
 	asch := ArrowSchema(b.cols, nil)
 	psch, err := pqarrow.ToParquet(asch, props, pqarrow.DefaultWriterProps())
 	if err != nil {
@@ -133,7 +133,7 @@ func newParquetWriter(b *base) (*parquetWriter, error) {
 	kv := metadata.KeyValueMetadata{}
 	// Store the Arrow schema (with the unit/description field metadata) the way pqarrow
 	// and pyarrow do, so Arrow-aware readers recover units.
-	kv.Append("ARROW:schema", base64.StdEncoding.EncodeToString(flight.SerializeSchema(asch, memory.DefaultAllocator)))
+	kv.Append("ARROW:schema", base64.StdEncoding.EncodeToString(flight.SerializeSchema(asch, b.opts.Allocator)))
 	fw, err := file.NewParquetWriterWithError(b.file.buf, psch.Root(), file.WithWriterProps(props), file.WithWriteMetadata(kv))
 	if err != nil {
 		return nil, fmt.Errorf("output: parquet writer: %w", err)
@@ -292,7 +292,7 @@ func (w *parquetWriter) writeColumn(cw file.ColumnChunkWriter, b *Batch, c int) 
 			if s.dict == nil {
 				s.dict = &stringDict{index: map[string]int32{}}
 			}
-			return s.dict.write(cw, col[:n], valid, def)
+			return s.dict.write(cw, w.opts.Allocator, col[:n], valid, def)
 		}
 		s.strs = s.strs[:0]
 		for i, x := range col[:n] {
@@ -373,7 +373,7 @@ type stringDict struct {
 	bitmap []byte
 }
 
-func (d *stringDict) write(cw file.ColumnChunkWriter, vals []string, valid []bool, def []int16) error {
+func (d *stringDict) write(cw file.ColumnChunkWriter, mem memory.Allocator, vals []string, valid []bool, def []int16) error {
 	clear(d.index)
 	d.words = d.words[:0]
 	n := len(vals)
@@ -393,7 +393,6 @@ func (d *stringDict) write(cw file.ColumnChunkWriter, vals []string, valid []boo
 		}
 		d.idx[i] = k
 	}
-	mem := memory.DefaultAllocator
 	sb := array.NewStringBuilder(mem)
 	sb.AppendValues(d.words, nil)
 	dict := sb.NewStringArray()

@@ -93,8 +93,9 @@ type Options struct {
 	Sidecar string
 	// Now, if set, stamps the sidecar manifest (never the data file) with Now().UTC().
 	Now func() time.Time
-	// Allocator is the Arrow allocator for the Arrow IPC writer; nil means
-	// memory.DefaultAllocator.
+	// Allocator is the Arrow allocator of the Parquet and Arrow IPC writers; nil means
+	// memory.DefaultAllocator. It must be safe for concurrent use (the Parquet columns
+	// are encoded in parallel); all arrow allocators are.
 	Allocator memory.Allocator
 }
 
