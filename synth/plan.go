@@ -114,13 +114,13 @@ func NewPlan(ctx context.Context, s *Scenario) (*Plan, error) {
 			return nil, err
 		}
 		cp.binaries = newBinaryModel(c.Binaries)
-		ext := c.Extinction
+		ext, extPath := c.Extinction, path+".extinction"
 		if ext == nil {
-			ext = s.Extinction
+			ext, extPath = s.Extinction, "extinction"
 		}
 		if c.Kind == "population" {
 			cp.place = newPlacement(c.Geometry)
-			if cp.ext, err = sv.extinction(s, path+".extinction", ext); err != nil {
+			if cp.ext, err = sv.extinction(s, extPath, ext); err != nil {
 				return nil, err
 			}
 			switch {
