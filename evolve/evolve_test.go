@@ -557,3 +557,35 @@ func TestNoAllocation(t *testing.T) {
 		t.Errorf("Evolve allocates %.1f times per run", allocs)
 	}
 }
+
+// TestEvolveBatch: the batch gives exactly Evolve's results, reuses dst and
+// reports the index of a bad star.
+func TestEvolveBatch(t *testing.T) {
+	t.Parallel()
+	m := model(t, 0.004)
+	masses := []float64{0.5, 1, 2, 5, 20}
+	ages := []float64{1e9, 5e9, 1e9, 1e8, 9e6}
+	dst := make([]evolve.Star, 0, 8)
+	out, err := m.EvolveBatch(dst, masses, ages)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if &out[0] != &dst[:1][0] {
+		t.Error("EvolveBatch did not reuse dst")
+	}
+	for i := range masses {
+		if want := evolveAt(t, m, masses[i], ages[i]); out[i] != want {
+			t.Errorf("star %d: %+v, want %+v", i, out[i], want)
+		}
+	}
+	_, err = m.EvolveBatch(nil, []float64{1, -1}, []float64{1e9, 1e9})
+	if !errors.Is(err, evolve.ErrOutOfRange) || !strings.Contains(err.Error(), "star 1") {
+		t.Errorf("bad batch: err = %v", err)
+	}
+	defer func() {
+		if recover() == nil {
+			t.Error("length mismatch did not panic")
+		}
+	}()
+	_, _ = m.EvolveBatch(nil, []float64{1}, nil)
+}
