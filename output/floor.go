@@ -18,7 +18,8 @@ var FloorWords = []string{"main_sequence", "subgiant", "red_giant_branch", "core
 // of that shape with no physics at all. The random batch is filled once, before the
 // writer is created, and written repeatedly (the generator's cost is not part of the
 // floor); nullable columns get ~10% nulls. Floats are uniform on [0, 30) (magnitudes),
-// integers uniform over their type, booleans fair coins, strings drawn from FloorWords.
+// integers uniform over their type, booleans fair coins, strings drawn from FloorWords
+// (cut to the column's FITS width).
 // It returns the size of the file written in bytes. rows must be >= 0 and batchRows >= 1.
 func WriteRandomFloor(format Format, path string, cols []Column, rows, batchRows int, seed uint64, opts Options) (int64, error) {
 	if rows < 0 {
@@ -85,8 +86,10 @@ func RandomBatch(cols []Column, n int, r *rand.Rand) *Batch {
 				v[i] = r.IntN(2) == 0
 			}
 		case []string:
+			width := col.strLen()
 			for i := range v {
-				v[i] = FloorWords[r.IntN(len(FloorWords))]
+				w := FloorWords[r.IntN(len(FloorWords))]
+				v[i] = w[:min(len(w), width)] // fits the FITS width
 			}
 		}
 		if col.Nullable {
