@@ -3,6 +3,7 @@ package evolve_test
 import (
 	"errors"
 	"math"
+	"math/rand/v2"
 	"strings"
 	"testing"
 
@@ -588,4 +589,41 @@ func TestEvolveBatch(t *testing.T) {
 		}
 	}()
 	_, _ = m.EvolveBatch(nil, []float64{1}, nil)
+}
+
+// TestRandomStates: a seeded random sample of (Z, mass, age) over the whole
+// accepted domain, ages concentrated on each star's nuclear lifetime: every
+// value finite and non-negative, StageFraction in [0, 1), core mass never
+// above the star's mass (property test).
+func TestRandomStates(t *testing.T) {
+	t.Parallel()
+	n := 200000
+	if testing.Short() {
+		n = 20000
+	}
+	r := rand.New(rand.NewPCG(3, 4))
+	models := make([]*evolve.Model, 12)
+	for i := range models {
+		models[i] = model(t, math.Pow(10, math.Log10(evolve.MinZ)+float64(i)/11*math.Log10(evolve.MaxZ/evolve.MinZ)))
+	}
+	bad := 0
+	for i := 0; i < n && bad < 10; i++ {
+		m := models[r.IntN(len(models))]
+		ms := evolve.MinMassMsun * math.Pow(evolve.MaxMassMsun/evolve.MinMassMsun, r.Float64())
+		ts := timescales(t, m, ms)
+		age := r.Float64() * math.Min(ts.EndAGBYr*1.2, evolve.MaxAgeYr)
+		if r.IntN(3) == 0 {
+			age = math.Pow(10, 13*r.Float64())
+		}
+		s := evolveAt(t, m, ms, age)
+		ok := s.StageFraction >= 0 && s.StageFraction < 1 && !math.IsNaN(s.LoggCgs) && !math.IsInf(s.LoggCgs, 0) &&
+			(s.CoreMassMsun <= s.MassMsun*(1+1e-9) || s.Stage == evolve.NoRemnant)
+		for _, v := range []float64{s.MassMsun, s.LuminosityLsun, s.TeffK, s.RadiusRsun, s.CoreMassMsun} {
+			ok = ok && !math.IsNaN(v) && !math.IsInf(v, 0) && v >= 0
+		}
+		if !ok {
+			bad++
+			t.Errorf("Z=%g M=%.4g age=%.4g: %+v", m.MetallicityZ(), ms, age, s)
+		}
+	}
 }

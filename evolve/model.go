@@ -666,11 +666,15 @@ func (m *Model) post(t *track, tm float64) Star {
 		} else {
 			mass = t.mBAGB - t.dME*tau*tau*tau*tau
 		}
+		// Reported core: the helium core, shrinking from Mc,BAGB to the
+		// post-dredge-up value Mc,TP across the early AGB (HPT eq. 69), never
+		// above the star's mass.
+		core := math.Min(math.Max(mc, t.mcBAGB+(t.mcTP-t.mcBAGB)*tau), mass)
 		if t.tauStrip <= 1 { // stripped during core He burning: shell-burning helium star
 			_, r := heZAMS(mass)
-			return finish(HeliumGiant, mass, l, r*math.Sqrt(l/t.lHe1), math.Max(mc, t.mcBAGB), tau)
+			return finish(HeliumGiant, mass, l, r*math.Sqrt(l/t.lHe1), core, tau)
 		}
-		return finish(EarlyAGB, mass, l, h.rGB(mass, l), math.Max(mc, t.mcBAGB), tau)
+		return finish(EarlyAGB, mass, l, h.rGB(mass, l), core, tau)
 	}
 	if tm < t.tEnd { // thermally pulsing AGB
 		dt := tm - t0 - t.tE
