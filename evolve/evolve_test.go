@@ -604,7 +604,7 @@ func TestRandomStates(t *testing.T) {
 	r := rand.New(rand.NewPCG(3, 4))
 	models := make([]*evolve.Model, 12)
 	for i := range models {
-		models[i] = model(t, math.Pow(10, math.Log10(evolve.MinZ)+float64(i)/11*math.Log10(evolve.MaxZ/evolve.MinZ)))
+		models[i] = model(t, math.Min(evolve.MaxZ, math.Pow(10, math.Log10(evolve.MinZ)+float64(i)/11*math.Log10(evolve.MaxZ/evolve.MinZ))))
 	}
 	bad := 0
 	for i := 0; i < n && bad < 10; i++ {
