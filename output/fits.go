@@ -182,6 +182,17 @@ type fitsWriter struct {
 }
 
 func newFITSWriter(b *base) (*fitsWriter, error) {
+	if len(b.cols) > 999 {
+		return nil, fmt.Errorf("%w: %d columns, a FITS table holds at most 999 (Standard 4.0 §7.3.1)", ErrSchema, len(b.cols))
+	}
+	for _, c := range b.cols {
+		if len(c.Name) > 68 {
+			return nil, fmt.Errorf("%w: column name %q has %d characters, FITS TTYPE holds at most 68", ErrSchema, c.Name, len(c.Name))
+		}
+		if len(c.Unit) > 68 {
+			return nil, fmt.Errorf("%w: column %q unit %q has %d characters, FITS TUNIT holds at most 68", ErrSchema, c.Name, c.Unit, len(c.Unit))
+		}
+	}
 	w := &fitsWriter{base: b, widths: make([]int, len(b.cols)), offsets: make([]int, len(b.cols)),
 		nulls: make([]int64, len(b.cols)), hasNull: make([]bool, len(b.cols))}
 	m := prepared(b.meta, b.format, b.cols, 0)

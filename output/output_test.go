@@ -342,6 +342,16 @@ func TestCreateErrors(t *testing.T) {
 			}
 		}
 	}
+	long := []Column{{Name: strings.Repeat("x", 69), Kind: Float32}}
+	if _, err := Create(FITS, filepath.Join(dir, "l.fits"), long, nil); !errors.Is(err, ErrSchema) {
+		t.Errorf("69-character FITS column name: %v", err)
+	}
+	ents, _ := os.ReadDir(dir)
+	for _, e := range ents {
+		if e.Name() != "ro" {
+			t.Errorf("failed Create left %q behind", e.Name())
+		}
+	}
 	if _, err := ParseFormat("xls"); err == nil || !strings.Contains(err.Error(), "allowed") {
 		t.Errorf("ParseFormat(xls): %v", err)
 	}
