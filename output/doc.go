@@ -82,6 +82,28 @@
 // with "_" or ".", so they see the parts as one table. ReadDataset reads them back in
 // part order.
 //
+// # Performance
+//
+// Measured with the benchmarks in bench_test.go on the 2-core development machine (AMD
+// EPYC, shared with other jobs at load average 4-7, so wall-clock rates vary up to 2x;
+// CPU time per row is steadier), 262144 rows per file in 65536-row batches, local disk,
+// fsync at Close:
+//
+//	schema                         Parquet(snappy)   Arrow IPC        FITS             CSV (ECSV)
+//	10 float32 columns  rows/s     3.6-7.1 M         7.5-10.5 M       7.4-10.5 M       0.9 M
+//	                    CPU ns/row 180               91               62               850
+//	5-band catalogue    rows/s     0.29-0.90 M       1.4-2.3 M        1.2 M            0.11-0.20 M
+//	(60 columns, 45     CPU ns/row 1150-1750         300-500          620-660          4650
+//	nullable)           bytes/row  193               252-260          279              556
+//
+// Parquet codecs on the 5-band schema of random values: none 191 bytes/row, snappy 193
+// (random values do not compress), zstd 174 at ~1.5x the CPU of snappy. Dictionary
+// encoding forced on 32 random float64 columns: 7.5x slower (73k vs 548k rows/s) and 25%
+// larger (320 vs 256 bytes/row) - hence plain encoding for floats. The I/O floor
+// (scripts/bench_io.sh: WriteRandomFloor, 2e6 rows of the 5-band schema, snappy):
+// 0.32-0.36 M rows/s wall, 1.9-2.1 us CPU per row, 193 bytes/row, peak resident memory
+// 186 MB; with zstd 0.14 M rows/s.
+//
 // # References
 //
 //   - Apache Parquet format specification, https://parquet.apache.org/docs/file-format/
