@@ -37,14 +37,24 @@ func newCoreLum(h *hpt, m float64) coreLum {
 // lum returns L (Lsun) for core mass mc (Msun), eq. (37).
 func (c *coreLum) lum(mc float64) float64 {
 	if mc < c.mx {
+		if c.p == 6 { // degenerate cores: avoid math.Pow
+			m3 := mc * mc * mc
+			return c.d * m3 * m3
+		}
 		return c.d * math.Pow(mc, c.p)
 	}
 	return c.b * mc * mc * mc
 }
 
-// core inverts lum.
+// core inverts lum (q = 3 always).
 func (c *coreLum) core(lumLsun float64) float64 {
-	return math.Max(math.Pow(lumLsun/c.b, 1/c.q), math.Pow(lumLsun/c.d, 1/c.p))
+	var dBranch float64
+	if c.p == 6 {
+		dBranch = math.Sqrt(math.Cbrt(lumLsun / c.d))
+	} else {
+		dBranch = math.Pow(lumLsun/c.d, 1/c.p)
+	}
+	return math.Max(math.Cbrt(lumLsun/c.b), dBranch)
 }
 
 // branchTime is the time for dMc/dt = A K Mc^n to take the core from m0 to m1.
@@ -126,8 +136,9 @@ const heliumRate = 7.66e-5
 // 2800 K, far cooler than observed (≈ 3300–3500 K, common practice); b3 = 0.71
 // gives about 3300 K at the tip and 4300 K at 100 Lsun.
 func (h *hpt) rGB(m, lumLsun float64) float64 {
-	a := math.Min(1.1*math.Pow(m, -0.3), 2*math.Pow(m, -0.5))
-	return h.rgbZFactor * a * (math.Pow(lumLsun, 0.4) + 0.383*math.Pow(lumLsun, rgbB3))
+	a := math.Min(1.1*math.Exp(-0.3*math.Log(m)), 2/math.Sqrt(m))
+	lnL := math.Log(lumLsun)
+	return h.rgbZFactor * a * (math.Exp(0.4*lnL) + 0.383*math.Exp(rgbB3*lnL))
 }
 
 // reimersRGBIntegral is ∫ R_GB(M=1, L(Mc)) dMc; with the mass factor

@@ -415,8 +415,14 @@ func (m *Model) fill(t *track) {
 	t.mcBAGB = math.Min(math.Max(mcBA, t.mcHeI), t.mHeI)
 	var hd [3]float64 // wind rate at τ = 0, 0.5, 1 at the start mass (this package's approximation)
 	for i := range hd {
+		if i == 1 && t.degenerate { // clump and HB winds are weak and smooth: mean of the ends
+			continue
+		}
 		l, r := m.chebLR(t, 0.5*float64(i), t.mHeI)
 		hd[i] = mdotMsunPerMyr(l, r, t.mHeI, m.zWind, true)
+	}
+	if t.degenerate {
+		hd[1] = 0.5 * (hd[0] + hd[2])
 	}
 	t.hd0, t.hd1, t.hd2 = hd[0], hd[1], hd[2]
 	t.dMHe = t.heMassLost(1)
@@ -535,7 +541,10 @@ func (m *Model) chebLR(t *track, tau, mass float64) (lumLsun, radiusRsun float64
 		lumLsun = t.lHe0 * math.Pow(t.lHe1/t.lHe0, tau)
 		// mass factor of R_GB capped at 1 Msun at the start: clump stars of
 		// 1–2 Msun share one temperature (common practice)
-		capFactor := math.Pow(mass/math.Min(mass, 1), 0.3*(1-tau*tau)) // undo A ∝ M^-0.3 above 1 Msun, fading out by the end
+		capFactor := 1.0 // undo A ∝ M^-0.3 above 1 Msun, fading out by the end
+		if mass > 1 {
+			capFactor = math.Exp(0.3 * (1 - tau*tau) * math.Log(mass))
+		}
 		radiusRsun = h.rGB(mass, lumLsun) * capFactor * (m.fHB + (1-m.fHB)*tau*tau)
 		return
 	}
