@@ -17,6 +17,7 @@ type RangeError struct {
 	Lo, Hi float64 // allowed closed interval
 }
 
+// Error formats the message: field, value with unit and the allowed range.
 func (e *RangeError) Error() string {
 	u := ""
 	if e.Unit != "" {

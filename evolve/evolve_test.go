@@ -384,6 +384,46 @@ func TestContinuity(t *testing.T) {
 	}
 }
 
+// TestContinuityAGB: L, R and mass are continuous where the early AGB turns
+// into the thermally pulsing AGB (an age not in Timescales, found by
+// bisection); same tolerance as TestContinuity.
+func TestContinuityAGB(t *testing.T) {
+	t.Parallel()
+	checked := 0
+	for _, z := range []float64{1e-4, 0.02} {
+		m := model(t, z)
+		for _, ms := range []float64{0.9, 1, 1.5, 2.5, 4, 6} {
+			ts := timescales(t, m, ms)
+			lo, hi := ts.EndCoreHeYr, ts.EndAGBYr*(1-1e-12)
+			if evolveAt(t, m, ms, hi).Stage != evolve.ThermallyPulsingAGB {
+				continue // no TP-AGB for this mass
+			}
+			for range 200 {
+				mid := 0.5 * (lo + hi)
+				if evolveAt(t, m, ms, mid).Stage == evolve.EarlyAGB {
+					lo = mid
+				} else {
+					hi = mid
+				}
+			}
+			a, b := evolveAt(t, m, ms, lo), evolveAt(t, m, ms, hi)
+			if a.Stage != evolve.EarlyAGB || b.Stage != evolve.ThermallyPulsingAGB {
+				t.Errorf("Z=%g %g Msun: bisection ended on %v/%v", z, ms, a.Stage, b.Stage)
+				continue
+			}
+			checked++
+			for _, p := range [][2]float64{{a.LuminosityLsun, b.LuminosityLsun}, {a.RadiusRsun, b.RadiusRsun}, {a.MassMsun, b.MassMsun}} {
+				if math.Abs(p[1]/p[0]-1) > 1e-3 {
+					t.Errorf("Z=%g %g Msun E-AGB→TP-AGB: %.5g → %.5g", z, ms, p[0], p[1])
+				}
+			}
+		}
+	}
+	if checked < 8 {
+		t.Errorf("only %d E-AGB→TP-AGB transitions checked", checked)
+	}
+}
+
 // TestTrackOrder: along a track the stage never goes back and the mass never
 // grows (property of any single-star track).
 func TestTrackOrder(t *testing.T) {
