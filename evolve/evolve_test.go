@@ -589,7 +589,7 @@ func TestNoAllocation(t *testing.T) {
 	masses := []float64{0.3, 1, 1.5, 3, 8, 20, 60}
 	allocs := testing.AllocsPerRun(100, func() {
 		for _, ms := range masses {
-			for _, age := range []float64{1e6, 1e8, 1e9, 1.2e10} {
+			for _, age := range []float64{1e6, 4.2e6, 9.3e6, 1e8, 1e9, 1.2e10} { // includes core He burning and a stripped helium star
 				_, _ = m.Evolve(ms, age)
 			}
 		}
