@@ -50,8 +50,10 @@
 // scaled by (Z/0.02)^0.5 above 4000 Lsun, HPT's LBV term, a clumping-reduced
 // Wolf–Rayet rate for naked helium stars; on the AGB the envelope is removed so
 // that the star ends with the Cummings et al. mass (a stand-in for the
-// superwind). Main-sequence winds are capped at half the initial mass (this
-// only binds above about 100 Msun at solar metallicity).
+// superwind). Main-sequence winds are capped at half the initial mass:
+// HPT's LBV term would otherwise remove more. The cap binds above about 57,
+// 66 and 137 Msun at Z = 0.03, 0.02 and 0.001 (never at Z = 1e-4); treat the
+// masses of the most massive stars as uncertain by a factor of about 2.
 //
 // Winds are evaluated at the start mass of each phase with a rate piecewise
 // linear in time through the phase's start, middle and end, so a star that
