@@ -29,7 +29,9 @@
 // empty string for strings (FITS Standard 4.0 §7.3.3.1); a valid integer equal to the
 // TNULL value is refused with an error. ECSV writes an empty field.
 //
-// Parquet: one row group per Write; snappy pages by default (zstd or none on request);
+// Parquet: one row group per Write of at least Options.RowGroupRows rows (default
+// 65536), smaller batches merged into row groups of at most that size (a detected-only
+// filter must not leave thousands of tiny row groups); snappy pages by default (zstd or none on request);
 // plain encoding for numbers and booleans, dictionary encoding only for String columns
 // and columns marked EncodingDictionary (dictionary-encoding random floats costs several
 // times the write time for no gain, BenchmarkParquetDictionary); min/max statistics on

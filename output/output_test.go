@@ -569,7 +569,7 @@ func TestWriteAllocsPerBatch(t *testing.T) {
 	cols := testColumns()
 	for _, f := range allFormats {
 		t.Run(f.String(), func(t *testing.T) {
-			w, err := CreateWithOptions(f, filepath.Join(t.TempDir(), "a"+f.Extension()), cols, nil, Options{Parallelism: 1})
+			w, err := CreateWithOptions(f, filepath.Join(t.TempDir(), "a"+f.Extension()), cols, nil, Options{Parallelism: 1, RowGroupRows: 1})
 			if err != nil {
 				t.Fatal(err)
 			}

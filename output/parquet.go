@@ -109,6 +109,7 @@ type parquetWriter struct {
 	*base
 	fw      *file.Writer
 	scratch []colScratch
+	pending *Batch // small batches merged into the next row group
 }
 
 // colScratch holds per-column buffers reused across batches (no per-row allocation).
@@ -149,6 +150,41 @@ func (w *parquetWriter) Write(b *Batch) error {
 	if b.N == 0 {
 		return nil
 	}
+	limit := w.opts.RowGroupRows
+	if w.pending != nil && w.pending.N > 0 && w.pending.N+b.N > limit {
+		if err := w.writeRowGroup(w.pending); err != nil {
+			return err
+		}
+		w.pending.N = 0
+	}
+	if b.N >= limit {
+		return w.writeRowGroup(b)
+	}
+	// A small batch (e.g. after a detected-only filter): merge it into the pending row
+	// group instead of writing a tiny one.
+	if w.pending == nil {
+		w.pending = NewBatch(w.cols, limit)
+	}
+	copyRows(w.pending, w.pending.N, b)
+	w.pending.N += b.N
+	return nil
+}
+
+// copyRows copies the first src.N rows of src into dst from row at; dst has validity
+// slices for every nullable column, and rows of src without validity become valid.
+func copyRows(dst *Batch, at int, src *Batch) {
+	appendBatch(dst, src, at)
+	for c, v := range dst.Valid {
+		if v != nil && (src.Valid == nil || src.Valid[c] == nil) {
+			for i := at; i < at+src.N; i++ {
+				v[i] = true
+			}
+		}
+	}
+}
+
+// writeRowGroup encodes the batch as one row group.
+func (w *parquetWriter) writeRowGroup(b *Batch) error {
 	ncol := len(w.cols)
 	par := min(w.opts.Parallelism, ncol)
 	if par <= 1 {
@@ -331,6 +367,12 @@ func compact[T any](dst, v []T, valid []bool) []T {
 // into place and writes the sidecar.
 func (w *parquetWriter) Close() error {
 	return w.commit(func() error {
+		if w.pending != nil && w.pending.N > 0 {
+			if err := w.writeRowGroup(w.pending); err != nil {
+				return err
+			}
+			w.pending.N = 0
+		}
 		js, err := marshalManifest(w.finalManifest())
 		if err != nil {
 			return err

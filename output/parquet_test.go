@@ -14,7 +14,7 @@ import (
 )
 
 // TestParquetLayout checks the layout decisions in the file's own metadata, read by
-// arrow-go's Parquet reader: one row group per Write, the chosen codec, dictionary
+// arrow-go's Parquet reader: one row group per Write (RowGroupRows 1), the chosen codec, dictionary
 // encoding only on String and EncodingDictionary columns, min/max statistics equal to
 // the true extremes of each row group, and the footer key/values.
 func TestParquetLayout(t *testing.T) {
@@ -23,7 +23,7 @@ func TestParquetLayout(t *testing.T) {
 			t.Parallel()
 			path := filepath.Join(t.TempDir(), "cat.parquet")
 			cols := testColumns()
-			w, err := CreateWithOptions(Parquet, path, cols, testManifest(), Options{Compression: codec})
+			w, err := CreateWithOptions(Parquet, path, cols, testManifest(), Options{Compression: codec, RowGroupRows: 1})
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -97,4 +97,64 @@ func TestParquetLayout(t *testing.T) {
 			}
 		})
 	}
+}
+
+// TestParquetRowGroupMerge: small batches are merged into row groups of at most
+// RowGroupRows rows without splitting a batch, a batch without validity slices gives
+// valid rows, and the rows read back in order.
+func TestParquetRowGroupMerge(t *testing.T) {
+	path := filepath.Join(t.TempDir(), "cat.parquet")
+	cols := testColumns()
+	w, err := CreateWithOptions(Parquet, path, cols, nil, Options{RowGroupRows: 250})
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := NewBatch(cols, 1000+300)
+	want.Reset(1300)
+	b := NewBatch(cols, 300)
+	r := rand.New(rand.NewPCG(8, 8))
+	at := 0
+	for k := range 11 {
+		n := 100
+		if k == 10 {
+			n = 300 // larger than RowGroupRows: its own row group
+		}
+		fillBatch(b, n, int64(at), r)
+		in := *b
+		if k == 3 {
+			in.Valid = nil // all valid
+			for c := range b.Valid {
+				if b.Valid[c] != nil {
+					for i := range n {
+						b.Valid[c][i] = true
+					}
+				}
+			}
+		}
+		appendBatch(want, b, at)
+		if err := w.Write(&in); err != nil {
+			t.Fatal(err)
+		}
+		at += n
+	}
+	if err := w.Close(); err != nil {
+		t.Fatal(err)
+	}
+	rdr, err := file.OpenParquetFile(path, false)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var sizes []int64
+	for g := range rdr.NumRowGroups() {
+		sizes = append(sizes, rdr.MetaData().RowGroup(g).NumRows())
+	}
+	rdr.Close()
+	if !slices.Equal(sizes, []int64{200, 200, 200, 200, 200, 300}) {
+		t.Errorf("row groups of %v rows, want 5 x 200 then 300", sizes)
+	}
+	tab, err := ReadFile(Parquet, path, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	compareBatches(t, "merged row groups", cols, tab.Batch, want)
 }

@@ -81,10 +81,20 @@ const (
 	defaultBufLen             = 1 << 20
 )
 
+// DefaultRowGroupRows is the default Parquet row-group target: 65536 rows, the
+// pipeline's default chunk, about 12 MB of a 60-column catalogue.
+const DefaultRowGroupRows = 1 << 16
+
 // Options tunes a writer; the zero value gives the documented defaults.
 type Options struct {
 	// Compression is the Parquet codec (default Snappy). Ignored by other formats.
 	Compression Compression
+	// RowGroupRows is the Parquet row-group target (default DefaultRowGroupRows). A
+	// batch with at least this many rows becomes one row group; smaller batches (e.g.
+	// after a detected-only filter) are copied and merged into row groups of at most
+	// RowGroupRows rows, never splitting a batch. 1 gives one row group per Write.
+	// Memory grows by one buffer of RowGroupRows rows.
+	RowGroupRows int
 	// Parallelism is the number of goroutines that encode the columns of one Parquet row
 	// group concurrently (default runtime.GOMAXPROCS(0)). The bytes written do not depend
 	// on it.
@@ -141,6 +151,12 @@ func CreateWithOptions(format Format, path string, cols []Column, meta *Manifest
 	}
 	if opts.Parallelism < 0 {
 		return nil, fmt.Errorf("output: parallelism %d outside 0..%d (0 = number of CPUs)", opts.Parallelism, 1024)
+	}
+	if opts.RowGroupRows < 0 || opts.RowGroupRows > 1<<24 {
+		return nil, fmt.Errorf("output: row group size %d rows outside 0..%d (0 = %d)", opts.RowGroupRows, 1<<24, DefaultRowGroupRows)
+	}
+	if opts.RowGroupRows == 0 {
+		opts.RowGroupRows = DefaultRowGroupRows
 	}
 	if opts.Parallelism == 0 {
 		opts.Parallelism = runtime.GOMAXPROCS(0)
