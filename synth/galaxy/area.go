@@ -442,3 +442,39 @@ func (a *PixelList) QuadratureDirections(order int) []Direction {
 func (a *PixelList) String() string {
 	return fmt.Sprintf("%d healpix pixels (nside %d, %v, %v coordinates)", len(a.Pixels), a.HP.Nside(), a.HP.Scheme(), a.System)
 }
+
+// boundaryArea is implemented by areas that can list points on their boundary (used for
+// the rejection envelope of ShellSampler, whose density maximum may lie on the edge).
+type boundaryArea interface {
+	boundaryDirections(n int) []Direction
+}
+
+// boundaryDirections returns n points on the cone's edge circle and its centre.
+func (c *Cone) boundaryDirections(n int) []Direction {
+	out := []Direction{{LDeg: c.LDeg, BDeg: c.BDeg}}
+	cosR := 1 - c.oneMinusCosR
+	for j := 0; j < n; j++ {
+		l, b := c.fromPolar(cosR, 2*math.Pi*float64(j)/float64(n))
+		out = append(out, Direction{LDeg: l, BDeg: b})
+	}
+	return out
+}
+
+// boundaryDirections returns n points along each of the rectangle's four edges.
+func (q *Rect) boundaryDirections(n int) []Direction {
+	var out []Direction
+	add := func(lon, lat float64) {
+		l, b := toGal(q.System, math.Mod(math.Mod(lon, 360)+360, 360), lat)
+		out = append(out, Direction{LDeg: l, BDeg: b})
+	}
+	for j := 0; j <= n; j++ {
+		f := float64(j) / float64(n)
+		lon := q.LonMinDeg + f*q.widthDeg
+		lat := q.LatMinDeg + f*(q.LatMaxDeg-q.LatMinDeg)
+		add(lon, q.LatMinDeg)
+		add(lon, q.LatMaxDeg)
+		add(q.LonMinDeg, lat)
+		add(q.LonMaxDeg, lat)
+	}
+	return out
+}

@@ -101,3 +101,17 @@ func BenchmarkDensityModel(b *testing.B) {
 	}
 	_ = s
 }
+
+// BenchmarkNewShellSampler10deg2 builds the sampler for the thin disc in a 10 deg² cone at
+// (45°, 60°), shell 1–30 kpc.
+func BenchmarkNewShellSampler10deg2(b *testing.B) {
+	m := DefaultModel()
+	r := math.Acos(1-10/(2*math.Pi)*degToRad*degToRad) * radToDeg
+	cone, _ := NewCone(45, 60, r)
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := m.NewShellSampler(cone, Shell{1000, 30000}, ThinDiscName); err != nil {
+			b.Fatal(err)
+		}
+	}
+}

@@ -248,6 +248,14 @@ func (f *Frame) FromGalactocentric(xPc, yPc, zPc float64) (lDeg, bDeg, distanceP
 	return lDeg, bDeg, distancePc
 }
 
+// ToCylindrical returns the Galactocentric cylindrical radius R and height z (pc) of a
+// heliocentric position (Galactic degrees, distance in pc), the coordinates of the density
+// laws.
+func (f *Frame) ToCylindrical(lDeg, bDeg, distancePc float64) (rPc, zPc float64) {
+	x, y, z := f.ToGalactocentric(lDeg, bDeg, distancePc)
+	return math.Hypot(x, y), z
+}
+
 // SunGalactocentric returns the Sun's Galactocentric Cartesian position (pc):
 // (−R0 cos θ, 0, z_sun).
 func (f *Frame) SunGalactocentric() (xPc, yPc, zPc float64) { return f.sunX, 0, f.sunZ }

@@ -147,3 +147,26 @@ func TestSunValidate(t *testing.T) {
 		}
 	}
 }
+
+// TestCoordSlices: the batch forms give the scalar results and invert each other
+// (round trip to 1e-12 rad, rounding of two rotations).
+func TestCoordSlices(t *testing.T) {
+	t.Parallel()
+	l := []float64{0, 10, 120.5, 359.9}
+	b := []float64{0, -45, 89, -89.5}
+	ra := make([]float64, 4)
+	dec := make([]float64, 4)
+	l2 := make([]float64, 4)
+	b2 := make([]float64, 4)
+	GalacticToICRSSlice(l, b, ra, dec)
+	ICRSToGalacticSlice(ra, dec, l2, b2)
+	for i := range l {
+		r1, d1 := GalacticToICRS(l[i], b[i])
+		if r1 != ra[i] || d1 != dec[i] {
+			t.Errorf("slice %d differs from scalar", i)
+		}
+		if s := angSepRad(l[i], b[i], l2[i], b2[i]); s > 1e-12 {
+			t.Errorf("round trip %d off by %g rad", i, s)
+		}
+	}
+}

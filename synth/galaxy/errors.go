@@ -26,6 +26,7 @@ type RangeError struct {
 	Allowed string
 }
 
+// Error formats "galaxy: <field> = <value> <unit> is outside the allowed range <range> <unit>".
 func (e *RangeError) Error() string {
 	u := ""
 	if e.Unit != "" && e.Unit != "-" {

@@ -360,3 +360,80 @@ func TestShellSamplerDistribution(t *testing.T) {
 		t.Errorf("acceptance %g", a)
 	}
 }
+
+// TestShellSamplerDirections: in a rectangle l ∈ [80°, 100°], b ∈ [5°, 25°] and shell
+// 200–2000 pc, the fraction of thin-disc draws with b > 15° equals the mass fraction of
+// that half from ShellMasses within 4 binomial standard errors (statistical, 20000 draws).
+func TestShellSamplerDirections(t *testing.T) {
+	t.Parallel()
+	m := DefaultModel()
+	all, _ := NewRect(Galactic, 80, 100, 5, 25)
+	upper, _ := NewRect(Galactic, 80, 100, 15, 25)
+	shell := Shell{200, 2000}
+	ma, _ := m.ShellMasses(all, []Shell{shell}, []string{ThinDiscName}, IntegrationOptions{})
+	mu, _ := m.ShellMasses(upper, []Shell{shell}, []string{ThinDiscName}, IntegrationOptions{})
+	want := mu[0].PresentMassMsun / ma[0].PresentMassMsun
+	ss, err := m.NewShellSampler(all, shell, ThinDiscName)
+	if err != nil {
+		t.Fatal(err)
+	}
+	r := rand.New(rand.NewPCG(41, 42))
+	const n = 20000
+	k := 0
+	for i := 0; i < n; i++ {
+		_, b, _, err := ss.Sample(r)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if b > 15 {
+			k++
+		}
+	}
+	got := float64(k) / n
+	se := math.Sqrt(want * (1 - want) / n)
+	if math.Abs(got-want) > 4*se {
+		t.Errorf("fraction above b = 15°: %.4f, mass fraction %.4f (4 se %.4f)", got, want, 4*se)
+	}
+}
+
+// TestShellSamplerEnvelope: the rejection envelope holds (no ErrEnvelopeExceeded) in
+// demanding cases: shells crossing the mid-plane at low latitude, the bulge toward the
+// Galactic centre, a HEALPix pixel list, and the whole sky close to the Sun. 5000 draws each.
+func TestShellSamplerEnvelope(t *testing.T) {
+	t.Parallel()
+	m := DefaultModel()
+	low, _ := NewCone(30, 0.5, 3)
+	gc, _ := NewCone(0, 0, 8)
+	pix, _ := NewPixelList(Galactic, 4, Nested, []int64{70, 71, 90, 91})
+	r := rand.New(rand.NewPCG(51, 52))
+	for _, tc := range []struct {
+		area  Area
+		shell Shell
+		comp  string
+	}{
+		{low, Shell{10, 8000}, ThinDiscName},
+		{low, Shell{10, 8000}, ThickDiscName},
+		{gc, Shell{5000, 11000}, BulgeName},
+		{gc, Shell{100, 20000}, HaloName},
+		{pix, Shell{50, 5000}, ThinDiscName},
+		{WholeSky(), Shell{0, 300}, ThinDiscName},
+		{WholeSky(), Shell{1000, 30000}, HaloName},
+	} {
+		ss, err := m.NewShellSampler(tc.area, tc.shell, tc.comp)
+		if err != nil {
+			t.Fatalf("%v %s: %v", tc.area, tc.comp, err)
+		}
+		for i := 0; i < 5000; i++ {
+			l, b, d, err := ss.Sample(r)
+			if err != nil {
+				t.Errorf("%v [%g, %g) %s: %v", tc.area, tc.shell.InnerPc, tc.shell.OuterPc, tc.comp, err)
+				break
+			}
+			if !tc.area.Contains(l, b) || d < tc.shell.InnerPc || d >= tc.shell.OuterPc {
+				t.Errorf("%v %s: draw (%g, %g, %g) outside", tc.area, tc.comp, l, b, d)
+				break
+			}
+		}
+		t.Logf("%v [%g, %g) pc %s: acceptance %.3f", tc.area, tc.shell.InnerPc, tc.shell.OuterPc, tc.comp, ss.Acceptance())
+	}
+}

@@ -57,6 +57,24 @@ func (d *ThinDisc) ScaleHeightAtAgePc(ageYr float64) (float64, error) {
 	return d.ScaleHeightPc * math.Pow((ageYr+d.HeatingTimescaleYr)/(d.HeatingRefAgeYr+d.HeatingTimescaleYr), d.HeatingIndex), nil
 }
 
+// DensityAtAgeMsunPc3 returns the density of the stars of age ageYr if they formed a disc
+// with the age-dependent scale height H(τ) of ScaleHeightAtAgePc and the same surface
+// density as the disc as a whole (so that mixing ages keeps the disc's column):
+//
+//	ρ_τ(R, z) = ρ0 (H/H(τ)) exp(−(R − R_ref)/L − |z|/H(τ))
+//
+// It equals DensityMsunPc3 when HeatingIndex = 0. A pipeline that draws ages first can use
+// it to weight or place stars by age; ShellMasses uses the age-independent law. Errors for
+// ages outside [0, 14e9] yr.
+func (d *ThinDisc) DensityAtAgeMsunPc3(xPc, yPc, zPc, ageYr float64) (float64, error) {
+	h, err := d.ScaleHeightAtAgePc(ageYr)
+	if err != nil {
+		return 0, err
+	}
+	r := math.Sqrt(xPc*xPc + yPc*yPc)
+	return d.NormMsunPc3 * d.ScaleHeightPc / h * math.Exp(-(r-d.RRefPc)/d.ScaleLengthPc-math.Abs(zPc)/h), nil
+}
+
 func (d *ThinDisc) validate() error {
 	if !(d.ScaleLengthPc >= 100 && d.ScaleLengthPc <= 20000) {
 		return rangeErr("thin_disc scale_length_pc", d.ScaleLengthPc, "pc", "[100, 20000]")

@@ -1,0 +1,348 @@
+package galaxy
+
+import (
+	"fmt"
+	"math"
+	"math/rand/v2"
+)
+
+// ShellSampler draws positions distributed as ρ(x) d² dd dΩ inside one shell of an area for
+// one component: the density-weighted distribution that ShellMasses integrates, so the
+// positions follow the density gradient inside the shell, not only the volume.
+//
+// Method: stratified rejection on cells × radial bins. The cells are nested HEALPix pixels
+// (Galactic) that may intersect the area, found by recursive subdivision from the 12 base
+// pixels with a conservative intersection test (a pixel's bounding cap against the area), so
+// no part of the area is left out; a cell is split while it is larger than 1/32 of the
+// area's solid angle or while the density varies across it by more than a factor 4, up to
+// 2048 cells. The shell is cut into 32 radial bins, of equal width, or of equal width in
+// log d when the shell spans more than a factor 4 in distance. For each cell and bin
+// the envelope ρ_kj is the largest density on a 4 × 4 grid of sub-pixel centres × 5
+// distances (plus each sight line's mid-plane crossing), times the largest ratio between
+// neighbouring grid points in angle and in distance, times a margin of 1.25. A trial picks
+// (k, j) with probability ∝ ρ_kj Ω_k V_j, a direction uniform in pixel k
+// (HEALPix.SampleInPixel), rejected if outside the area, a distance ∝ d² in bin j, and
+// accepts with probability ρ/ρ_kj. The proposal is constant on each disjoint cell × bin,
+// so accepted positions have density ∝ ρ exactly as long as the envelope holds; if a trial
+// ever finds ρ > ρ_kj, Sample returns ErrEnvelopeExceeded rather than a biased draw.
+type ShellSampler struct {
+	model  *Model
+	area   Area
+	shell  Shell
+	comp   Component
+	hp     [30]*HEALPix // nested pixelization per level (nside 2^level)
+	cells  []samplerCell
+	edges  [samplerBins + 1]float64
+	env    []float64 // envelope per (cell, bin), index k*samplerBins + j
+	cum    []float64 // cumulative proposal weight, normalised to 1
+	tries  int64
+	accept int64
+}
+
+type samplerCell struct {
+	level uint8
+	pix   int64
+}
+
+const (
+	samplerBins      = 32
+	samplerBinPoints = 5
+	samplerMaxCells  = 2048
+	samplerSplitVar  = 4.0
+)
+
+// capArea is implemented by areas that can say whether they may intersect a spherical cap
+// (centre unit vector, angular radius): false must mean "certainly not".
+type capArea interface {
+	mayIntersectCap(ux, uy, uz, radiusRad float64) bool
+}
+
+func (c *Cone) mayIntersectCap(ux, uy, uz, radiusRad float64) bool {
+	dot := ux*c.cx + uy*c.cy + uz*c.cz
+	sep := math.Acos(math.Max(-1, math.Min(1, dot)))
+	return sep <= c.RadiusDeg*degToRad+radiusRad+1e-12
+}
+
+func (q *Rect) mayIntersectCap(ux, uy, uz, radiusRad float64) bool {
+	lon, lat := sphericalDeg(ux, uy, uz) // Galactic
+	lon, lat = fromGal(q.System, lon, lat)
+	rd := radiusRad*radToDeg + 1e-9
+	if lat+rd < q.LatMinDeg || lat-rd > q.LatMaxDeg {
+		return false
+	}
+	if lat+rd >= 90 || lat-rd <= -90 || q.widthDeg == 360 {
+		return true // the cap reaches a pole: every longitude
+	}
+	dlon := math.Asin(math.Min(1, math.Sin(radiusRad)/math.Cos(lat*degToRad)))*radToDeg + 1e-9
+	// circular interval overlap of [lon − dlon, lon + dlon] with [LonMin, LonMin + width]
+	off := math.Mod(lon-dlon-q.LonMinDeg, 360)
+	if off < 0 {
+		off += 360
+	}
+	return off <= q.widthDeg || off+2*dlon >= 360
+}
+
+func (a *PixelList) mayIntersectCap(ux, uy, uz, radiusRad float64) bool {
+	for _, p := range a.Pixels {
+		th, ph := a.HP.Pix2Ang(p)
+		l, b := toGal(a.System, ph*radToDeg, 90-th*radToDeg)
+		x, y, z := unitVector(l, b)
+		sep := math.Acos(math.Max(-1, math.Min(1, x*ux+y*uy+z*uz)))
+		if sep <= radiusRad+a.HP.pixelRadiusRad(p)+1e-12 {
+			return true
+		}
+	}
+	return false
+}
+
+// pixelRadiusRad bounds the angular distance from a pixel's centre to any of its points:
+// the largest distance to the corners of its (z, φ) bounding box (on a latitude–longitude
+// box the distance from an interior point is largest at a corner), plus 1e-9 rad.
+func (h *HEALPix) pixelRadiusRad(pix int64) float64 {
+	th, ph := h.Pix2Ang(pix)
+	cx, cy, cz := unitVector(ph*radToDeg, 90-th*radToDeg)
+	zLo, zHi, phiC, dphi := h.pixelBox(pix)
+	var worst float64
+	for _, z := range []float64{zLo, zHi} {
+		for _, p := range []float64{phiC - dphi, phiC + dphi} {
+			s := math.Sqrt(math.Max(0, 1-z*z))
+			x, y := s*math.Cos(p), s*math.Sin(p)
+			worst = math.Max(worst, math.Acos(math.Max(-1, math.Min(1, x*cx+y*cy+z*cz))))
+		}
+	}
+	return worst + 1e-9
+}
+
+// NewShellSampler builds the sampler for component name (error for an unknown name or an
+// invalid shell, or when the density is zero or not finite everywhere on the grid).
+func (m *Model) NewShellSampler(area Area, s Shell, name string) (*ShellSampler, error) {
+	c, err := m.Component(name)
+	if err != nil {
+		return nil, err
+	}
+	if !(s.InnerPc >= 0 && s.InnerPc < s.OuterPc && s.OuterPc <= MaxDistancePc) {
+		return nil, fmt.Errorf("galaxy: shell [%g, %g) pc is not 0 <= inner < outer <= 1e6 pc: %w", s.InnerPc, s.OuterPc, ErrOutOfRange)
+	}
+	ss := &ShellSampler{model: m, area: area, shell: s, comp: c}
+	logBins := s.InnerPc > 0 && s.OuterPc > 4*s.InnerPc
+	for j := range ss.edges {
+		f := float64(j) / samplerBins
+		if logBins {
+			ss.edges[j] = s.InnerPc * math.Pow(s.OuterPc/s.InnerPc, f)
+		} else {
+			ss.edges[j] = s.InnerPc + (s.OuterPc-s.InnerPc)*f
+		}
+	}
+	ss.edges[samplerBins] = s.OuterPc
+	ca, hasCap := area.(capArea)
+	omega := area.SolidAngleSr()
+	type pending struct {
+		cell      samplerCell
+		env       [samplerBins]float64
+		vr        float64
+		evaluated bool
+	}
+	var queue, done []pending
+	for p := int64(0); p < 12; p++ {
+		cl := samplerCell{0, p}
+		if !hasCap || ss.intersects(ca, cl) {
+			queue = append(queue, pending{cell: cl})
+		}
+	}
+	for len(queue) > 0 {
+		q := queue[0]
+		queue = queue[1:]
+		canSplit := q.cell.level+2 < 29 && len(done)+len(queue)+4 <= samplerMaxCells
+		split := canSplit && ss.level(q.cell.level).PixelAreaSr() > omega/32 // too large: split unseen
+		if !split {
+			q.env, q.vr = ss.cellEnvelope(q.cell)
+			q.evaluated = true
+			split = canSplit && q.vr > samplerSplitVar
+		}
+		if split {
+			for ch := q.cell.pix * 4; ch < q.cell.pix*4+4; ch++ {
+				cl := samplerCell{q.cell.level + 1, ch}
+				if !hasCap || ss.intersects(ca, cl) {
+					queue = append(queue, pending{cell: cl})
+				}
+			}
+			continue
+		}
+		if !q.evaluated {
+			q.env, q.vr = ss.cellEnvelope(q.cell)
+		}
+		done = append(done, q)
+	}
+	var total float64
+	for _, d := range done {
+		for j := 0; j < samplerBins; j++ {
+			if math.IsInf(d.env[j], 0) || math.IsNaN(d.env[j]) {
+				return nil, fmt.Errorf("galaxy: %s density in shell [%g, %g) pc of %v is not finite on the sampling grid", name, s.InnerPc, s.OuterPc, area)
+			}
+		}
+	}
+	ss.cells = make([]samplerCell, len(done))
+	ss.env = make([]float64, len(done)*samplerBins)
+	ss.cum = make([]float64, len(done)*samplerBins)
+	for k, d := range done {
+		ss.cells[k] = d.cell
+		om := ss.level(d.cell.level).PixelAreaSr()
+		for j := 0; j < samplerBins; j++ {
+			lo, hi := ss.edges[j], ss.edges[j+1]
+			ss.env[k*samplerBins+j] = d.env[j]
+			total += d.env[j] * om * (hi*hi*hi - lo*lo*lo)
+			ss.cum[k*samplerBins+j] = total
+		}
+	}
+	if !(total > 0) {
+		return nil, fmt.Errorf("galaxy: %s density in shell [%g, %g) pc of %v is zero on the sampling grid: cannot sample", name, s.InnerPc, s.OuterPc, area)
+	}
+	for i := range ss.cum {
+		ss.cum[i] /= total
+	}
+	ss.cum[len(ss.cum)-1] = 1
+	return ss, nil
+}
+
+func (ss *ShellSampler) level(l uint8) *HEALPix {
+	if ss.hp[l] == nil {
+		ss.hp[l], _ = NewHEALPix(int64(1)<<l, Nested)
+	}
+	return ss.hp[l]
+}
+
+func (ss *ShellSampler) intersects(ca capArea, cl samplerCell) bool {
+	h := ss.level(cl.level)
+	th, ph := h.Pix2Ang(cl.pix)
+	x, y, z := unitVector(ph*radToDeg, 90-th*radToDeg)
+	return ca.mayIntersectCap(x, y, z, h.pixelRadiusRad(cl.pix))
+}
+
+// cellEnvelope returns the envelope per radial bin of one cell and the largest max/min
+// density ratio across the cell's 16 directions at one distance (the splitting criterion:
+// angular variation only, since splitting a cell cannot reduce the radial one).
+func (ss *ShellSampler) cellEnvelope(cl samplerCell) (env [samplerBins]float64, varRatio float64) {
+	m, c := ss.model, ss.comp
+	fine := ss.level(cl.level + 2)
+	var dirs [16][3]float64
+	var cross [16]float64
+	for ch := 0; ch < 16; ch++ {
+		th, ph := fine.Pix2Ang(cl.pix*16 + int64(ch))
+		x, y, z := unitVector(ph*radToDeg, 90-th*radToDeg)
+		dirs[ch] = [3]float64{x, y, z}
+		cross[ch] = m.Frame.planeCrossingPc(x, y, z)
+	}
+	varRatio = 1
+	var vals [16][samplerBinPoints + 1]float64
+	for j := 0; j < samplerBins; j++ {
+		lo, hi := ss.edges[j], ss.edges[j+1]
+		vmax := 0.0
+		rad, ang := 1.0, 1.0
+		for ch := 0; ch < 16; ch++ {
+			for p := 0; p <= samplerBinPoints; p++ {
+				dist := lo + (hi-lo)*float64(p)/(samplerBinPoints-1)
+				if p == samplerBinPoints {
+					dist = hi
+					if cross[ch] > lo && cross[ch] < hi {
+						dist = cross[ch]
+					}
+				}
+				x, y, z := m.Frame.dirToGalactocentric(dirs[ch][0], dirs[ch][1], dirs[ch][2], dist)
+				v := c.DensityMsunPc3(x, y, z)
+				vals[ch][p] = v
+				vmax = math.Max(vmax, v)
+				if p > 0 && p < samplerBinPoints {
+					rad = math.Max(rad, ratio(v, vals[ch][p-1]))
+				}
+			}
+		}
+		// angular neighbours on the 4 × 4 face grid of the children (nested bit interleaving)
+		for ch := 0; ch < 16; ch++ {
+			ix, iy := compact(uint64(ch)), compact(uint64(ch)>>1)
+			for _, nb := range [][2]uint64{{ix + 1, iy}, {ix, iy + 1}} {
+				if nb[0] > 3 || nb[1] > 3 {
+					continue
+				}
+				k := interleave(int64(nb[0]), int64(nb[1]))
+				for p := 0; p <= samplerBinPoints; p++ {
+					ang = math.Max(ang, ratio(vals[ch][p], vals[k][p]))
+				}
+			}
+		}
+		env[j] = vmax * rad * ang * 1.25
+		for p := 0; p < samplerBinPoints; p++ { // spread across directions at fixed distance
+			amax, amin := 0.0, math.Inf(1)
+			for ch := 0; ch < 16; ch++ {
+				amax = math.Max(amax, vals[ch][p])
+				amin = math.Min(amin, vals[ch][p])
+			}
+			if amin > 0 {
+				varRatio = math.Max(varRatio, amax/amin)
+			} else if amax > 0 {
+				varRatio = math.Inf(1)
+			}
+		}
+	}
+	return env, varRatio
+}
+
+// ratio returns max(a/b, b/a) for positive a, b and 1 otherwise.
+func ratio(a, b float64) float64 {
+	if a > 0 && b > 0 {
+		if a > b {
+			return a / b
+		}
+		return b / a
+	}
+	return 1
+}
+
+// Cells returns the number of angular cells of the sampler (diagnostic).
+func (ss *ShellSampler) Cells() int { return len(ss.cells) }
+
+// Sample draws one position: Galactic lDeg, bDeg (degrees) and distancePc. Each trial uses
+// one r.Float64 for the cell and bin, the draws of HEALPix.SampleInPixel, one for the
+// distance and one for the acceptance. Error ErrEnvelopeExceeded (see ShellSampler); it
+// gives up with an error after 10⁷ trials. No allocation.
+func (ss *ShellSampler) Sample(r *rand.Rand) (lDeg, bDeg, distancePc float64, err error) {
+	for t := 0; t < 10000000; t++ {
+		u := r.Float64()
+		lo, hi := 0, len(ss.cum)-1
+		for lo < hi { // first index with cum > u
+			mid := (lo + hi) / 2
+			if ss.cum[mid] > u {
+				hi = mid
+			} else {
+				lo = mid + 1
+			}
+		}
+		k, j := lo/samplerBins, lo%samplerBins
+		cl := ss.cells[k]
+		th, ph := ss.hp[cl.level].SampleInPixel(cl.pix, r)
+		l, b := ph*radToDeg, 90-th*radToDeg
+		d := SampleDistanceUniformVolume(Shell{ss.edges[j], ss.edges[j+1]}, r)
+		ss.tries++
+		if !ss.area.Contains(l, b) {
+			continue
+		}
+		env := ss.env[lo]
+		rho := ss.model.ComponentDensityAt(ss.comp, l, b, d)
+		if rho > env {
+			return 0, 0, 0, fmt.Errorf("galaxy: %s density %g Msun/pc^3 at (l, b, d) = (%g, %g, %g) exceeds envelope %g: %w",
+				ss.comp.Name(), rho, l, b, d, env, ErrEnvelopeExceeded)
+		}
+		if r.Float64()*env < rho {
+			ss.accept++
+			return l, b, d, nil
+		}
+	}
+	return 0, 0, 0, fmt.Errorf("galaxy: %s shell sampler accepted nothing in 1e7 trials (acceptance %g)", ss.comp.Name(), ss.Acceptance())
+}
+
+// Acceptance returns the fraction of accepted trials so far (NaN before the first).
+func (ss *ShellSampler) Acceptance() float64 {
+	if ss.tries == 0 {
+		return math.NaN()
+	}
+	return float64(ss.accept) / float64(ss.tries)
+}
