@@ -110,7 +110,9 @@ type Options struct {
 }
 
 // Writer streams batches to one file. Write may be called any number of times (each
-// call becomes one row group / record batch / block of rows); Close finalises the file,
+// call becomes one Arrow record batch, one block of FITS or CSV rows, one Parquet row
+// group or part of one, see Options.RowGroupRows); the batch is encoded before Write
+// returns and may be reused at once. Close finalises the file,
 // renames it to its final name and writes the sidecar; Abort removes everything. After
 // the first error every later Write returns it; Close after an error removes the
 // temporary file and returns the error. Close and Abort are idempotent. A Writer is not
