@@ -167,3 +167,54 @@ func mcBAGB(m float64) float64 {
 func massForMcBAGB(mc float64) float64 {
 	return math.Pow((mc*mc*mc*mc-0.0843)/4.36e-4, 1/5.22)
 }
+
+// fillRGB sets the first giant branch: its duration and the mass lost on it.
+func (m *Model) fillRGB(t *track) {
+	h := &m.h
+	cl := &t.cl
+	// First giant branch.
+	t.kReimers = 4e-13 * reimersEta / (t.aH * 1e-6)
+	t.mcStrip = t.mcHeI
+	switch {
+	case t.hgToHe:
+		t.tRGB = 0
+		t.mHeI = t.mBGB
+	case t.degenerate:
+		t.tRGB = cl.growTime(t.aH, t.mcBGB, t.mcHeI)
+		t.mHeI = t.rgbMass(h, t.mcHeI)
+		if t.mHeI <= t.mcHeI { // envelope lost before the flash: helium white dwarf
+			lo, hi := t.mcBGB, t.mcHeI
+			for range 40 {
+				mid := 0.5 * (lo + hi)
+				if t.rgbMass(h, mid) > mid {
+					lo = mid
+				} else {
+					hi = mid
+				}
+			}
+			t.heWD = true
+			t.mcStrip = lo
+			t.tRGB = cl.growTime(t.aH, t.mcBGB, lo)
+			t.mHeI = lo
+		}
+	default:
+		lm := math.Sqrt(t.lBGB * t.lHeI)
+		// this package: ΔMc / (A_H ⟨L⟩), at least 1 per cent of t_MS so that
+		// L rises continuously from L_BGB to L_HeI
+		t.tRGB = math.Max((t.mcHeI-t.mcBGB)/(t.aH*lm), 0.01*t.tMS)
+		rm := h.rGB(t.mBGB, lm)
+		t.mHeI = math.Max(t.mBGB-t.tRGB*mdotMsunPerMyr(lm, rm, t.mBGB, m.zWind, true), t.mcHeI)
+	}
+	t.mcHeI = math.Min(t.mcHeI, t.mHeI)
+	t.tHeI = t.tBGB + t.tRGB
+}
+
+// rgbMass is the mass on a degenerate-core giant branch when the core has grown
+// to mc: the closed-form Reimers integral (massloss.go).
+func (t *track) rgbMass(h *hpt, mc float64) float64 {
+	v := math.Pow(t.mBGB, 2.3) - 2.3*t.kReimers*h.reimersRGBIntegral(&t.cl, t.mcBGB, mc)
+	if v <= 0 {
+		return 0
+	}
+	return math.Pow(v, 1/2.3)
+}

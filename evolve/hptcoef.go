@@ -90,24 +90,6 @@ func newHPT(metallicityZ float64) hpt {
 	return h
 }
 
-// tBGBMyr is the time to the base of the giant branch, HPT eq. (4), in Myr.
-func (h *hpt) tBGBMyr(m float64) float64 {
-	s := math.Sqrt(m)
-	m2 := m * m
-	m4 := m2 * m2
-	m7 := m4 * m2 * m
-	a := &h.a
-	return (a[1] + a[2]*m4 + a[3]*m4*m*s + m7) / (a[4]*m2 + a[5]*m7)
-}
-
-// tMSMyr is the main-sequence lifetime, HPT eqs. (5)–(7), in Myr.
-func (h *hpt) tMSMyr(m, tBGB float64) float64 {
-	a := &h.a
-	mu := math.Max(0.5, 1-0.01*math.Max(a[6]/math.Pow(m, a[7]), a[8]+a[9]/math.Pow(m, a[10]))) // eq. (7)
-	tHook := mu * tBGB                                                                         // eq. (5)
-	return math.Max(tHook, h.x*tBGB)                                                           // eq. (5)
-}
-
 // lTMS is the luminosity at the end of the main sequence, HPT eq. (8), in Lsun.
 func (h *hpt) lTMS(m float64) float64 {
 	a := &h.a

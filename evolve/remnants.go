@@ -77,28 +77,6 @@ func fryerRapid(mCO, mFin float64) (Stage, float64) {
 	return BlackHole, 0.9 * mBar
 }
 
-// wdLum is the Mestel-type cooling law of HPT 2000 eq. (90):
-// L = 635 M Z^0.4 / [A (t + 0.1)]^1.4 with t in Myr and A the mean ion mass
-// number (4 He, 12 CO, 16 ONe).
-func wdLum(st Stage, massMsun, metallicityZ, coolMyr float64) float64 {
-	a := 12.0
-	switch st {
-	case HeliumWhiteDwarf:
-		a = 4
-	case OxygenNeonWhiteDwarf:
-		a = 16
-	}
-	return 635 * massMsun * math.Pow(metallicityZ, 0.4) / math.Pow(a*(coolMyr+0.1), 1.4)
-}
-
-// wdRadius is the white-dwarf mass–radius relation of HPT 2000 eq. (91)
-// (after Tout et al. 1997): R = max(R_NS, 0.0115 √((M_Ch/M)^(2/3) − (M/M_Ch)^(2/3))).
-func wdRadius(massMsun float64) float64 {
-	x := math.Cbrt(chandrasekharMsun / massMsun)
-	x *= x
-	return math.Max(rNSRsun, 0.0115*math.Sqrt(math.Max(x-1/x, 0)))
-}
-
 // nsLum is HPT 2000 eq. (93): L = 0.02 M^(2/3) / max(t, 0.1)^2, t in Myr.
 func nsLum(massMsun, ageMyr float64) float64 {
 	t := math.Max(ageMyr, 0.1)
@@ -130,4 +108,30 @@ func tHeMSMyr(m float64) float64 {
 	m4 := m2 * m2
 	m6 := m4 * m2
 	return (0.4129 + 18.81*m4 + 1.853*m6) / (m6 * math.Sqrt(m))
+}
+
+// fillCollapse sets the post-helium supergiant phase of a core-collapse
+// progenitor and its remnant.
+func (m *Model) fillCollapse(t *track) {
+	h := &m.h
+	t.ccsn = true
+	t.tLate = 0.1 * t.tHe // post-helium-burning phases, ~10 per cent of core He burning (common practice)
+	if t.tauStrip <= 1 {
+		t.dMLate = t.mBAGB - m.wrMass(t.mBAGB, t.tLate)
+	} else {
+		r := h.rGB(t.mBAGB, 1.14*t.lHe1)
+		t.dMLate = math.Min(t.tLate*mdotMsunPerMyr(1.14*t.lHe1, r, t.mBAGB, m.zWind, true), t.mBAGB-t.mcBAGB)
+	}
+	mFin := t.mBAGB - t.dMLate
+	heCore := math.Min(t.mcBAGB, mFin)
+	mCO := math.Min(math.Max(chandrasekharMsun, 0.773*heCore-0.35), mFin) // HPT eq. (75)
+	t.tEnd = t.tHeI + t.tHe + t.tLate
+	switch {
+	case heCore >= 64 && heCore <= 133: // Heger & Woosley 2002, pair instability
+		t.remnant, t.mRem = NoRemnant, 0
+	case heCore > 133: // direct collapse above the pair-instability gap
+		t.remnant, t.mRem = BlackHole, 0.9*mFin
+	default:
+		t.remnant, t.mRem = fryerRapid(mCO, mFin)
+	}
 }
