@@ -109,5 +109,12 @@
 //   - Lattimer J. M., Yahil A. 1989, ApJ 340, 426
 //   - Heger A., Woosley S. E. 2002, ApJ 567, 532
 //   - Mestel L. 1952, MNRAS 112, 583 (white-dwarf cooling law)
-//   - Pecaut M. J., Mamajek E. E. 2013, ApJS 208, 9 (dwarf sequence, tests)
+//   - Tout C. A., Aarseth S. J., Pols O. R., Eggleton P. P. 1997, MNRAS 291,
+//     732 (white-dwarf mass–radius relation used by HPT; details from memory)
+//
+// Sources of the tests only: Pecaut M. J., Mamajek E. E. 2013, ApJS 208, 9
+// (dwarf sequence; E. Mamajek's table version 2024.05.15); Kalirai J. S. et al.
+// 2008, ApJ 676, 594; Smartt S. J. 2009, ARA&A 47, 63; Thorsett S. E.,
+// Chakrabarty D. 1999, ApJ 512, 288; IAU 2015 Resolution B3 (nominal solar
+// values); the reference tables in testdata/ name their own sources.
 package evolve
