@@ -1,7 +1,6 @@
 package output
 
 import (
-	"os"
 	"os/exec"
 	"path/filepath"
 	"testing"
@@ -33,5 +32,4 @@ func TestAstropyReads(t *testing.T) {
 	if err == nil {
 		t.Errorf("check_astropy.py passed with a wrong row count:\n%s", out)
 	}
-	_ = os.Remove
 }

@@ -321,6 +321,7 @@ func TestCreateErrors(t *testing.T) {
 		{"duplicate column", filepath.Join(dir, "a.parquet"), []Column{{Name: "x", Kind: Float32}, {Name: "x", Kind: Int8}}, Options{}, "duplicate"},
 		{"bad kind", filepath.Join(dir, "a.parquet"), []Column{{Name: "x"}}, Options{}, "invalid kind"},
 		{"comma in name", filepath.Join(dir, "a.parquet"), []Column{{Name: "x,y", Kind: Float32}}, Options{}, "character"},
+		{"comment-like name", filepath.Join(dir, "a.parquet"), []Column{{Name: "#x", Kind: Float32}}, Options{}, "starts with"},
 		{"bad codec", filepath.Join(dir, "a.parquet"), cols, Options{Compression: "lzma"}, "unknown compression"},
 	}
 	if os.Getuid() != 0 {

@@ -87,7 +87,8 @@ const DefaultStringMaxLen = 16
 var ErrSchema = errors.New("output: schema mismatch")
 
 // ValidateColumns checks a column list: at least one column, non-empty unique names made
-// of printable ASCII without commas or quotes (so every format can carry them), valid
+// of printable ASCII without spaces, commas or quotes and not starting with '#' (so every
+// format can carry them), valid
 // kinds, MaxLen within 0..10000. The error wraps ErrSchema and names the column.
 func ValidateColumns(cols []Column) error {
 	if len(cols) == 0 {
@@ -102,6 +103,9 @@ func ValidateColumns(cols []Column) error {
 			if r <= ' ' || r > '~' || r == ',' || r == '"' || r == '\'' {
 				return fmt.Errorf("%w: column %d name %q has character %q (allowed: printable ASCII without space, comma or quotes)", ErrSchema, i, c.Name, r)
 			}
+		}
+		if c.Name[0] == '#' {
+			return fmt.Errorf("%w: column %d name %q starts with '#' (CSV readers take the line for a comment)", ErrSchema, i, c.Name)
 		}
 		if seen[c.Name] {
 			return fmt.Errorf("%w: duplicate column name %q", ErrSchema, c.Name)
