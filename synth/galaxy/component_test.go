@@ -16,7 +16,7 @@ func relDiff(a, b float64) float64 { return math.Abs(a-b) / math.Max(math.Abs(b)
 // (Gaia 100 pc census, 0.040 Msun/pc³) and an overridden value.
 func TestLocalDensityNormalisation(t *testing.T) {
 	t.Parallel()
-	for _, rho := range []float64{LocalMassDensityMsunPc3, 0.1} {
+	for _, rho := range []float64{refValue(t, "local_stellar_mass_density_100pc_kroupa"), 0.1} {
 		p := DefaultParams()
 		p.LocalMassDensityMsunPc3 = rho
 		m, err := NewModel(p)
@@ -47,7 +47,10 @@ func TestJuricFractions(t *testing.T) {
 	}
 	def := DefaultModel()
 	rs := m.Frame.rSunCylPc
-	const f, fh, h1, h2, q, n = 0.12, 0.005, 300.0, 900.0, 0.64, 2.8 // Jurić et al. 2008 (abstract)
+	// Jurić et al. 2008 (abstract), rows of testdata/population_values_galaxy.tsv
+	f, fh := refValue(t, "juric_thick_to_thin_local_normalization"), refValue(t, "juric_halo_to_thin_local_normalization")
+	h1, h2 := refValue(t, "juric_thin_scale_height"), refValue(t, "juric_thick_scale_height")
+	q, n := refValue(t, "juric_halo_axis_ratio_c/a"), refValue(t, "juric_halo_power_law_index")
 	for _, z := range []float64{-3000, -500, 0, 250, 1000, 2000, 4000, 8000} {
 		thin := m.ThinDisc.DensityMsunPc3(-rs, 0, z)
 		thick := m.ThickDisc.DensityMsunPc3(-rs, 0, z)
@@ -82,10 +85,11 @@ func TestMcKeeSurfaceDensity(t *testing.T) {
 	for i := 0; i+1 < len(edges); i++ {
 		sigma += quad.Fixed(col, edges[i], edges[i+1], 200, nil, 0)
 	}
-	if math.Abs(sigma-33.4) > 6 {
-		t.Errorf("stellar surface density %.2f Msun/pc², McKee et al. 2015: 33.4 ± 3", sigma)
+	want := refValue(t, "mckee_surface_density_stars_and_remnants")
+	if math.Abs(sigma-want) > 6 {
+		t.Errorf("stellar surface density %.2f Msun/pc², McKee et al. 2015: %g ± 3", sigma, want)
 	}
-	t.Logf("model Σ* at the solar circle: %.2f Msun/pc² (McKee et al. 2015: 33.4 ± 3)", sigma)
+	t.Logf("model Σ* at the solar circle: %.2f Msun/pc² (McKee et al. 2015: %g ± 3)", sigma, want)
 }
 
 // TestBulgeG2Integral recomputes I_G2 = π ∫₀^∞ ds ∫ dw exp(−√(s² + w⁴)/2) with gonum's
@@ -191,5 +195,32 @@ func TestScaleHeightAtAge(t *testing.T) {
 	}
 	if _, err := d2.ScaleHeightAtAgePc(2e10); !errors.Is(err, ErrOutOfRange) {
 		t.Errorf("age 2e10 yr: %v", err)
+	}
+}
+
+// TestHaloBreak: with the Sesar, Jurić & Ivezić 2011 break (r_b = 28 kpc, n_out = 3.8,
+// population_values.tsv rows sesar2011_halo_*), the halo is continuous at r_b (1e-12) and
+// falls as r^−3.8 beyond it: ρ(2 r_b)/ρ(r_b) = 2^−3.8 up to the core term (1e-3 relative,
+// since (r² + a²) with a = 500 pc differs from r² by 3e-4 at r_b).
+func TestHaloBreak(t *testing.T) {
+	t.Parallel()
+	p := DefaultParams()
+	p.Halo.BreakRadiusPc, p.Halo.OuterIndexN = 28000, 3.8
+	m, err := NewModel(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	h := m.Halo
+	below := h.DensityMsunPc3(28000*(1-1e-13), 0, 0)
+	above := h.DensityMsunPc3(28000*(1+1e-13), 0, 0)
+	if relDiff(above, below) > 1e-12 {
+		t.Errorf("discontinuous at the break: %g vs %g", below, above)
+	}
+	if r := h.DensityMsunPc3(56000, 0, 0) / h.DensityMsunPc3(28000, 0, 0); relDiff(r, math.Pow(2, -3.8)) > 1e-3 {
+		t.Errorf("outer slope: ratio %g, want 2^-3.8 = %g", r, math.Pow(2, -3.8))
+	}
+	p.Halo.OuterIndexN = -1
+	if _, err := NewModel(p); !errors.Is(err, ErrOutOfRange) {
+		t.Errorf("negative outer index accepted: %v", err)
 	}
 }

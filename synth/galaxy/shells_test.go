@@ -437,3 +437,33 @@ func TestShellSamplerEnvelope(t *testing.T) {
 		t.Logf("%v [%g, %g) pc %s: acceptance %.3f", tc.area, tc.shell.InnerPc, tc.shell.OuterPc, tc.comp, ss.Acceptance())
 	}
 }
+
+// TestGalaxyTotalMass integrates every component over the whole sky from 0 to 100 kpc.
+// (a) The bulge must return its total mass parameter (1e-6 relative; the G2 law falls off
+// so fast that the mass beyond 100 kpc and outside the shells is nil) — a check of the
+// whole-sky rule where the density is concentrated 8 kpc away within a few degrees.
+// (b) The total stellar mass is compared with Bland-Hawthorn & Gerhard 2016 (5 ± 1)e10
+// Msun (from memory; population_values.tsv row bhg16_total_stellar_mass) within 2σ.
+func TestGalaxyTotalMass(t *testing.T) {
+	t.Parallel()
+	m := DefaultModel()
+	shells, _ := MakeShells(0, 100000, 20, LinearSpacing)
+	res, err := m.ShellMasses(WholeSky(), shells, nil, IntegrationOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	tot := map[string]float64{}
+	var all float64
+	for _, r := range res {
+		tot[r.Component] += r.PresentMassMsun
+		all += r.PresentMassMsun
+	}
+	if relDiff(tot[BulgeName], m.Bulge.MassMsun) > 1e-6 {
+		t.Errorf("bulge mass over the sky %.9g Msun, parameter %.9g", tot[BulgeName], m.Bulge.MassMsun)
+	}
+	want := refValue(t, "bhg16_total_stellar_mass")
+	if math.Abs(all-want) > 2e10 {
+		t.Errorf("total stellar mass %.3g Msun, Bland-Hawthorn & Gerhard 2016: %.3g ± 1e10", all, want)
+	}
+	t.Logf("masses within 100 kpc: %v; total %.3g Msun", tot, all)
+}
