@@ -134,7 +134,7 @@ func writeFileAtomic(path string, data []byte) error {
 	if dir == "" {
 		dir = "."
 	}
-	f, err := os.CreateTemp(dir, "."+name+".tmp-*")
+	f, err := createTemp(dir, name)
 	if err != nil {
 		return fmt.Errorf("output: cannot create %q: %w", path, err)
 	}

@@ -588,3 +588,25 @@ func TestWriteAllocsPerBatch(t *testing.T) {
 		})
 	}
 }
+
+// TestFileMode: the catalogue and its sidecar get mode 0666 minus the umask, like any
+// file the user creates, not the 0600 of a temporary file.
+func TestFileMode(t *testing.T) {
+	dir := t.TempDir()
+	path := filepath.Join(dir, "cat.csv")
+	writeTestFile(t, CSV, path, 10, 1, Options{})
+	probe := filepath.Join(dir, "probe")
+	if err := os.WriteFile(probe, nil, 0o666); err != nil {
+		t.Fatal(err)
+	}
+	want, _ := os.Stat(probe)
+	for _, p := range []string{path, SidecarPath(path)} {
+		st, err := os.Stat(p)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if st.Mode().Perm() != want.Mode().Perm() {
+			t.Errorf("%s mode %v, want %v", filepath.Base(p), st.Mode().Perm(), want.Mode().Perm())
+		}
+	}
+}

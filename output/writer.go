@@ -2,6 +2,8 @@ package output
 
 import (
 	"bufio"
+	crand "crypto/rand"
+	"encoding/hex"
 	"errors"
 	"fmt"
 	"os"
@@ -209,11 +211,35 @@ func createAtomic(path string) (*atomicFile, error) {
 	if dir == "" {
 		dir = "."
 	}
-	f, err := os.CreateTemp(dir, "."+name+".tmp-*")
+	f, err := createTemp(dir, name)
 	if err != nil {
 		return nil, fmt.Errorf("output: cannot create %q: %w", path, err)
 	}
 	return &atomicFile{f: f, buf: bufio.NewWriterSize(f, defaultBufLen), final: path, tmp: f.Name()}, nil
+}
+
+// createTemp creates `<dir>/.<name>.tmp-XXXXXXXX` exclusively with mode 0666 minus the
+// umask, so the renamed file gets the same permissions as any file the user creates
+// (os.CreateTemp would give 0600). The suffix comes from crypto/rand: it only has to be
+// unique, and draws no simulation randomness.
+func createTemp(dir, name string) (*os.File, error) {
+	var err error
+	for range 100 {
+		var sfx [4]byte
+		if _, err = crand.Read(sfx[:]); err != nil {
+			return nil, err
+		}
+		p := filepath.Join(dir, "."+name+".tmp-"+hex.EncodeToString(sfx[:]))
+		var f *os.File
+		f, err = os.OpenFile(p, os.O_RDWR|os.O_CREATE|os.O_EXCL, 0o666)
+		if err == nil {
+			return f, nil
+		}
+		if !errors.Is(err, os.ErrExist) {
+			return nil, err
+		}
+	}
+	return nil, err
 }
 
 // finish flushes and closes the temporary file (without renaming).
