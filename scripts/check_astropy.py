@@ -16,7 +16,8 @@ Checks, each reported on its own line; the exit status is 1 if any fails, 2 on u
 errors:
   - astropy.table.Table.read opens the FITS file (first table HDU) and the CSV file
     (format="ascii.ecsv");
-  - column names and order, units and row count match;
+  - column names and order, units and row count match, and astropy recognises every
+    unit string (IAU/FITS spellings such as solMass, solLum, mag, pc, yr);
   - the FITS primary header has ORIGIN = 'starmock' and SYNTHETC = T, and the MANIFEST
     extension holds valid JSON; the ECSV meta holds the manifest JSON;
   - only columns the manifest marks nullable contain nulls.
@@ -61,6 +62,8 @@ def check_table(kind, path, tab, names, units, rows, nullable):
         want = as_unit(unit)
         same = (got is None and want is None) or (got is not None and want is not None and got == want)
         check(same, f"{kind} {path}: column {name} unit {got!s} == {unit!r}")
+        if got is not None and isinstance(got, u.UnrecognizedUnit):
+            check(False, f"{kind} {path}: column {name} unit {unit!r} is not a unit astropy knows")
         col = tab[name]
         nnull = int(np.count_nonzero(col.mask)) if hasattr(col, "mask") and col.mask is not np.False_ else 0
         if nnull and not nullable.get(name, False):
