@@ -350,6 +350,9 @@ type PixelList struct {
 	System CoordSystem
 	HP     *HEALPix
 	Pixels []int64 // sorted, without duplicates
+
+	centres [][3]float64 // Galactic unit vectors of the pixel centres (set by NewPixelList)
+	radii   []float64    // bounding radii of the pixels, rad
 }
 
 // NewPixelList validates nside (power of two), scheme and the pixel numbers (each in
@@ -373,7 +376,15 @@ func NewPixelList(system CoordSystem, nside int64, scheme Scheme, pixels []int64
 			return nil, fmt.Errorf("galaxy: healpix pixel %d (entry %d) is outside [0, %d) for nside %d: %w", p, i, h.NPix(), nside, ErrOutOfRange)
 		}
 	}
-	return &PixelList{System: system, HP: h, Pixels: ps}, nil
+	a := &PixelList{System: system, HP: h, Pixels: ps, centres: make([][3]float64, len(ps)), radii: make([]float64, len(ps))}
+	for i, p := range ps {
+		th, ph := h.Pix2Ang(p)
+		l, b := toGal(system, ph*radToDeg, 90-th*radToDeg)
+		x, y, z := unitVector(l, b)
+		a.centres[i] = [3]float64{x, y, z}
+		a.radii[i] = h.pixelRadiusRad(p)
+	}
+	return a, nil
 }
 
 // SolidAngleSr returns the number of pixels times the pixel area.

@@ -39,6 +39,8 @@ func ComponentNames() []string {
 // massFactor holds the initial/present mass conversion of a component.
 type massFactor struct{ initialPerPresent float64 }
 
+// InitialMassPerPresentMass returns the initial-to-present mass factor (see Component);
+// 1 until set with Model.SetInitialMassPerPresentMass.
 func (m *massFactor) InitialMassPerPresentMass() float64 {
 	if m.initialPerPresent == 0 {
 		return 1

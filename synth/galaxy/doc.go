@@ -20,6 +20,23 @@
 // formed per unit present-day mass and sets it with Model.SetInitialMassPerPresentMass; the
 // shell integrals then report both masses.
 //
+// # Integrals and draws along the sight line
+//
+// Model.ShellMasses integrates ρ d² over distance shells and an area: Gauss–Legendre in
+// distance on sub-intervals of at most max(200 pc, 0.05 d), split where a sight line crosses
+// the mid-plane, times the area's angular rule. Galactic rectangles (and WholeSky) use a
+// rule graded toward the plane and the Galactic centre, with extra cuts where sight lines
+// meet the plane at the shell edges. Tested accuracy with the default options: 1e-6
+// relative against nested gonum quadrature for 10 deg² cones (one crossing the plane toward
+// the bulge), against closed forms for whole-sky spheres and polar cones; the bulge mass
+// is recovered over the whole sky to 4e-9. Cones are not graded: for large cones across the
+// plane raise AngularOrder or use a Rect.
+//
+// PoissonCount draws the number of stars; SampleUniformInShell places them uniformly in
+// volume; ShellSampler places them with density ∝ ρ inside the shell by stratified rejection
+// on adaptive HEALPix cells × radial bins (exact as long as its envelope holds, which it
+// checks on every trial).
+//
 // # References
 //
 //   - Blaauw, Gum, Pawsey & Westerhout 1960, MNRAS 121, 123: the IAU 1958 Galactic system.
@@ -41,6 +58,10 @@
 //     stars and remnants within 100 pc (Kroupa IMF correction).
 //   - Wielen 1977, A&A 60, 263: disc heating, σ ∝ τ^½ (from memory), for the optional
 //     age-dependent thin-disc scale height.
+//   - Sesar, Jurić & Ivezić 2011, ApJ 731, 4: broken halo power law (2.62 inside ~28 kpc,
+//     3.8 outside), the optional halo break.
+//   - Hörmann 1993, Insurance: Mathematics and Economics 12, 39: the PTRS Poisson generator.
+//   - Stanek et al. 1994, ApJ 429, L73: the bar's near end at positive longitude (test).
 //
 // # Incomplete
 //
@@ -48,5 +69,6 @@
 // but the shell integrals use the single scale height; ages, metallicities and mass
 // functions of the components belong to the pipeline (package synth). There is no warp,
 // flare, spiral structure or inner-disc hole; the bulge parameters are recalled, not read
-// from the papers.
+// from the papers. The default halo (Jurić's number-density normalisation applied to mass)
+// holds 4.6e9 Msun within 100 kpc, more than usual stellar-halo mass estimates.
 package galaxy

@@ -25,6 +25,9 @@ import (
 // accepts with probability ρ/ρ_kj. The proposal is constant on each disjoint cell × bin,
 // so accepted positions have density ∝ ρ exactly as long as the envelope holds; if a trial
 // ever finds ρ > ρ_kj, Sample returns ErrEnvelopeExceeded rather than a biased draw.
+//
+// Areas of this package (Cone, Rect, PixelList) provide the intersection test; for another
+// Area implementation every pixel is a candidate, which is correct but slow for small areas.
 type ShellSampler struct {
 	model  *Model
 	area   Area
@@ -83,7 +86,16 @@ func (q *Rect) mayIntersectCap(ux, uy, uz, radiusRad float64) bool {
 }
 
 func (a *PixelList) mayIntersectCap(ux, uy, uz, radiusRad float64) bool {
-	for _, p := range a.Pixels {
+	if len(a.centres) == len(a.Pixels) {
+		for i, c := range a.centres {
+			sep := math.Acos(math.Max(-1, math.Min(1, c[0]*ux+c[1]*uy+c[2]*uz)))
+			if sep <= radiusRad+a.radii[i]+1e-12 {
+				return true
+			}
+		}
+		return false
+	}
+	for _, p := range a.Pixels { // a PixelList built without NewPixelList
 		th, ph := a.HP.Pix2Ang(p)
 		l, b := toGal(a.System, ph*radToDeg, 90-th*radToDeg)
 		x, y, z := unitVector(l, b)

@@ -8,6 +8,7 @@ Rows:
   pix2ang  nside  ring_pix   -        theta_rad phi_rad   (centre of ring pixel ring_pix)
   nest2ring nside nest_pix   -        ring_pix  -
   area     nside  -          -        pixel_area_sr -
+  maxpixrad nside -          -        max_pixrad_rad -  (largest centre-to-corner angle of any pixel)
 """
 import numpy as np
 import healpy as hp
@@ -19,6 +20,8 @@ print("# kind\tnside\ta\tb\tc\td")
 nsides = [1, 2, 4, 8, 64, 1024, 2**20, 2**29]
 for ns in nsides:
     print(f"area\t{ns}\t\t\t{hp.nside2pixarea(ns):.17g}\t")
+for ns in [1, 2, 4, 8, 16, 64]:
+    print(f"maxpixrad\t{ns}\t\t\t{hp.max_pixrad(ns):.17g}\t")
 for ns in nsides:
     th = list(np.arccos(rng.uniform(-1, 1, 40)))
     ph = list(rng.uniform(0, 2 * np.pi, 40))
