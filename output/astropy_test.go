@@ -32,4 +32,20 @@ func TestAstropyReads(t *testing.T) {
 	if err == nil {
 		t.Errorf("check_astropy.py passed with a wrong row count:\n%s", out)
 	}
+	// ... and when a unit string is not one astropy knows.
+	bad := filepath.Join(dir, "bad.fits")
+	w, err := Create(FITS, bad, []Column{{Name: "m", Unit: "Msun_per_blob", Kind: Float32}}, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := w.Write(&Batch{N: 1, Cols: []any{[]float32{1}}}); err != nil {
+		t.Fatal(err)
+	}
+	if err := w.Close(); err != nil {
+		t.Fatal(err)
+	}
+	out, err = exec.Command(py, script, "--fits", bad).CombinedOutput()
+	if err == nil {
+		t.Errorf("check_astropy.py passed with an unknown unit:\n%s", out)
+	}
 }
