@@ -172,3 +172,40 @@ func TestPixelListWholeSky(t *testing.T) {
 		t.Errorf("∫ sin b dΩ = %g, want 0", s)
 	}
 }
+
+// TestNewArea: each spec kind builds the matching area (solid angle by the closed forms of
+// the constructors' tests) and bad kinds or fields give errors naming them.
+func TestNewArea(t *testing.T) {
+	t.Parallel()
+	for _, tc := range []struct {
+		spec  AreaSpec
+		omega float64
+	}{
+		{AreaSpec{Kind: "cone", LDeg: 10, BDeg: 20, RadiusDeg: 90}, 2 * math.Pi},
+		{AreaSpec{Kind: "rect", System: "icrs", LonMinDeg: 0, LonMaxDeg: 360, LatMinDeg: 0, LatMaxDeg: 90}, 2 * math.Pi},
+		{AreaSpec{Kind: "healpix", System: "galactic", Nside: 1, Scheme: "nested", Pixels: []int64{0, 1, 2}}, math.Pi},
+		{AreaSpec{Kind: "all_sky"}, 4 * math.Pi},
+	} {
+		a, err := NewArea(tc.spec)
+		if err != nil {
+			t.Errorf("%+v: %v", tc.spec, err)
+			continue
+		}
+		if math.Abs(a.SolidAngleSr()-tc.omega) > 1e-12 {
+			t.Errorf("%v: solid angle %g, want %g", a, a.SolidAngleSr(), tc.omega)
+		}
+	}
+	for _, tc := range []struct {
+		spec AreaSpec
+		word string
+	}{
+		{AreaSpec{Kind: "polygon"}, `"polygon"`},
+		{AreaSpec{Kind: "rect", System: "ecliptic", LonMaxDeg: 1, LatMaxDeg: 1}, `"ecliptic"`},
+		{AreaSpec{Kind: "healpix", Nside: 4, Scheme: "zigzag", Pixels: []int64{1}}, `"zigzag"`},
+		{AreaSpec{Kind: "cone", RadiusDeg: 0}, "radius_deg"},
+	} {
+		if _, err := NewArea(tc.spec); err == nil || !strings.Contains(err.Error(), tc.word) {
+			t.Errorf("%+v: error %v, want one naming %s", tc.spec, err, tc.word)
+		}
+	}
+}
