@@ -467,3 +467,39 @@ func TestGalaxyTotalMass(t *testing.T) {
 	}
 	t.Logf("masses within 100 kpc: %v; total %.3g Msun", tot, all)
 }
+
+// TestMayIntersectCapConservative: the intersection test the sampler uses to choose its
+// cells must never say "no" when the cap and the area share a point. Property check with
+// 20000 random (point in area, cap containing it) pairs per area type.
+func TestMayIntersectCapConservative(t *testing.T) {
+	t.Parallel()
+	cone, _ := NewCone(200, -30, 7)
+	rect, _ := NewRect(Galactic, 350, 375, 60, 89)
+	eq, _ := NewRect(Equatorial, 100, 130, -80, -50)
+	pix, _ := NewPixelList(Equatorial, 8, Ring, []int64{5, 300, 600})
+	r := rand.New(rand.NewPCG(61, 62))
+	for _, a := range []Area{cone, rect, eq, pix} {
+		ca := a.(capArea)
+		for i := 0; i < 20000; i++ {
+			l, b := a.SampleDirection(r)
+			px, py, pz := unitVector(l, b)
+			rad := math.Pow(10, -3+3*r.Float64()) // 0.001 to 1 rad
+			// a cap centre at angular distance < rad from the point
+			ex, ey, ez := unitVector(360*r.Float64(), 180*r.Float64()-90)
+			// move from the point toward e by an angle u·rad
+			dot := px*ex + py*ey + pz*ez
+			ox, oy, oz := ex-dot*px, ey-dot*py, ez-dot*pz
+			n := math.Sqrt(ox*ox + oy*oy + oz*oz)
+			if n == 0 {
+				continue
+			}
+			ang := 0.999 * rad * r.Float64()
+			s, c := math.Sincos(ang)
+			cx, cy, cz := c*px+s*ox/n, c*py+s*oy/n, c*pz+s*oz/n
+			if !ca.mayIntersectCap(cx, cy, cz, rad) {
+				t.Errorf("%v: cap of radius %g rad %g rad from the area point (%g, %g) reported disjoint", a, rad, ang, l, b)
+				break
+			}
+		}
+	}
+}
