@@ -28,18 +28,19 @@ import (
 //
 // Areas of this package (Cone, Rect, PixelList) provide the intersection test; for another
 // Area implementation every pixel is a candidate, which is correct but slow for small areas.
+//
+// A ShellSampler is immutable once built: several goroutines may call Sample at the same
+// time, each with its own *rand.Rand.
 type ShellSampler struct {
-	model  *Model
-	area   Area
-	shell  Shell
-	comp   Component
-	hp     [30]*HEALPix // nested pixelization per level (nside 2^level)
-	cells  []samplerCell
-	edges  [samplerBins + 1]float64
-	env    []float64 // envelope per (cell, bin), index k*samplerBins + j
-	cum    []float64 // cumulative proposal weight, normalised to 1
-	tries  int64
-	accept int64
+	model *Model
+	area  Area
+	shell Shell
+	comp  Component
+	hp    [30]*HEALPix // nested pixelization per level (nside 2^level)
+	cells []samplerCell
+	edges [samplerBins + 1]float64
+	env   []float64 // envelope per (cell, bin), index k*samplerBins + j
+	cum   []float64 // cumulative proposal weight, normalised to 1
 }
 
 type samplerCell struct {
@@ -312,12 +313,20 @@ func ratio(a, b float64) float64 {
 // Cells returns the number of angular cells of the sampler (diagnostic).
 func (ss *ShellSampler) Cells() int { return len(ss.cells) }
 
-// Sample draws one position: Galactic lDeg, bDeg (degrees) and distancePc. Each trial uses
-// one r.Float64 for the cell and bin, the draws of HEALPix.SampleInPixel, one for the
-// distance and one for the acceptance. Error ErrEnvelopeExceeded (see ShellSampler); it
-// gives up with an error after 10⁷ trials. No allocation.
+// Sample draws one position: Galactic lDeg, bDeg (degrees) and distancePc. See SampleTrials
+// for the draws used. Errors as SampleTrials. No allocation.
 func (ss *ShellSampler) Sample(r *rand.Rand) (lDeg, bDeg, distancePc float64, err error) {
-	for t := 0; t < 10000000; t++ {
+	lDeg, bDeg, distancePc, _, err = ss.SampleTrials(r)
+	return lDeg, bDeg, distancePc, err
+}
+
+// SampleTrials is Sample that also reports the number of trials used (1/acceptance on
+// average). Each trial uses one r.Float64 for the cell and bin, the draws of
+// HEALPix.SampleInPixel, one for the distance and, when the direction is inside the area,
+// one for the acceptance. Error ErrEnvelopeExceeded (see ShellSampler); it gives up with an
+// error after 10⁷ trials. No allocation.
+func (ss *ShellSampler) SampleTrials(r *rand.Rand) (lDeg, bDeg, distancePc float64, trials int, err error) {
+	for t := 1; t <= 10000000; t++ {
 		u := r.Float64()
 		lo, hi := 0, len(ss.cum)-1
 		for lo < hi { // first index with cum > u
@@ -333,28 +342,18 @@ func (ss *ShellSampler) Sample(r *rand.Rand) (lDeg, bDeg, distancePc float64, er
 		th, ph := ss.hp[cl.level].SampleInPixel(cl.pix, r)
 		l, b := ph*radToDeg, 90-th*radToDeg
 		d := SampleDistanceUniformVolume(Shell{ss.edges[j], ss.edges[j+1]}, r)
-		ss.tries++
 		if !ss.area.Contains(l, b) {
 			continue
 		}
 		env := ss.env[lo]
 		rho := ss.model.ComponentDensityAt(ss.comp, l, b, d)
 		if rho > env {
-			return 0, 0, 0, fmt.Errorf("galaxy: %s density %g Msun/pc^3 at (l, b, d) = (%g, %g, %g) exceeds envelope %g: %w",
+			return 0, 0, 0, t, fmt.Errorf("galaxy: %s density %g Msun/pc^3 at (l, b, d) = (%g, %g, %g) exceeds envelope %g: %w",
 				ss.comp.Name(), rho, l, b, d, env, ErrEnvelopeExceeded)
 		}
 		if r.Float64()*env < rho {
-			ss.accept++
-			return l, b, d, nil
+			return l, b, d, t, nil
 		}
 	}
-	return 0, 0, 0, fmt.Errorf("galaxy: %s shell sampler accepted nothing in 1e7 trials (acceptance %g)", ss.comp.Name(), ss.Acceptance())
-}
-
-// Acceptance returns the fraction of accepted trials so far (NaN before the first).
-func (ss *ShellSampler) Acceptance() float64 {
-	if ss.tries == 0 {
-		return math.NaN()
-	}
-	return float64(ss.accept) / float64(ss.tries)
+	return 0, 0, 0, 10000000, fmt.Errorf("galaxy: %s shell sampler accepted nothing in 1e7 trials", ss.comp.Name())
 }

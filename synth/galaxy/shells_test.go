@@ -334,9 +334,10 @@ func TestShellSamplerDistribution(t *testing.T) {
 	r := rand.New(rand.NewPCG(31, 32))
 	const n = 20000
 	in := 0
-	var vol int
+	var vol, trials int
 	for i := 0; i < n; i++ {
-		_, _, d, err := ss.Sample(r)
+		_, _, d, tr, err := ss.SampleTrials(r)
+		trials += tr
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -356,7 +357,7 @@ func TestShellSamplerDistribution(t *testing.T) {
 	if uv := float64(vol) / n; math.Abs(uv-wantInner) < 10*se {
 		t.Errorf("test lacks power: uniform-volume fraction %.4f close to %.4f", uv, wantInner)
 	}
-	if a := ss.Acceptance(); !(a > 0.05 && a <= 1) {
+	if a := float64(n) / float64(trials); !(a > 0.05 && a <= 1) {
 		t.Errorf("acceptance %g", a)
 	}
 }
@@ -423,8 +424,10 @@ func TestShellSamplerEnvelope(t *testing.T) {
 		if err != nil {
 			t.Fatalf("%v %s: %v", tc.area, tc.comp, err)
 		}
+		trials := 0
 		for i := 0; i < 5000; i++ {
-			l, b, d, err := ss.Sample(r)
+			l, b, d, tr, err := ss.SampleTrials(r)
+			trials += tr
 			if err != nil {
 				t.Errorf("%v [%g, %g) %s: %v", tc.area, tc.shell.InnerPc, tc.shell.OuterPc, tc.comp, err)
 				break
@@ -434,7 +437,7 @@ func TestShellSamplerEnvelope(t *testing.T) {
 				break
 			}
 		}
-		t.Logf("%v [%g, %g) pc %s: acceptance %.3f", tc.area, tc.shell.InnerPc, tc.shell.OuterPc, tc.comp, ss.Acceptance())
+		t.Logf("%v [%g, %g) pc %s: %d cells, acceptance %.3f", tc.area, tc.shell.InnerPc, tc.shell.OuterPc, tc.comp, ss.Cells(), 5000/float64(trials))
 	}
 }
 
