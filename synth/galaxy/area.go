@@ -20,7 +20,7 @@ type Direction struct {
 //
 // SolidAngleSr is the exact solid angle in sr. Contains reports whether a Galactic
 // direction (degrees; lDeg any finite value, bDeg in [−90, 90]) is inside (boundaries
-// count as inside). SampleDirection draws a direction uniformly distributed on the sphere
+// count as inside); a bDeg outside [−90, 90] or NaN is not a direction and gives false. SampleDirection draws a direction uniformly distributed on the sphere
 // within the area, returning Galactic lDeg in [0, 360) and bDeg. QuadratureDirections
 // returns a deterministic rule of nodes inside the area for ∫ f dΩ; order ≥ 1 sets its
 // resolution (the meaning per area type is on each constructor) and panics if < 1.
@@ -97,6 +97,9 @@ func (c *Cone) SolidAngleSr() float64 { return 2 * math.Pi * c.oneMinusCosR }
 // Contains reports whether (lDeg, bDeg) lies within the radius (squared-chord test,
 // precise for small radii).
 func (c *Cone) Contains(lDeg, bDeg float64) bool {
+	if !(bDeg >= -90 && bDeg <= 90) {
+		return false
+	}
 	x, y, z := unitVector(lDeg, bDeg)
 	dx, dy, dz := x-c.cx, y-c.cy, z-c.cz
 	return dx*dx+dy*dy+dz*dz <= c.chord2Max*(1+1e-15)
@@ -235,6 +238,9 @@ func (q *Rect) SolidAngleSr() float64 {
 
 // Contains converts (lDeg, bDeg) to the rectangle's system and tests both ranges.
 func (q *Rect) Contains(lDeg, bDeg float64) bool {
+	if !(bDeg >= -90 && bDeg <= 90) {
+		return false
+	}
 	lon, lat := fromGal(q.System, lDeg, bDeg)
 	if lat < q.LatMinDeg || lat > q.LatMaxDeg {
 		return false
@@ -390,19 +396,20 @@ func NewPixelList(system CoordSystem, nside int64, scheme Scheme, pixels []int64
 // SolidAngleSr returns the number of pixels times the pixel area.
 func (a *PixelList) SolidAngleSr() float64 { return float64(len(a.Pixels)) * a.HP.PixelAreaSr() }
 
+// latLonToThetaPhi converts latitude/longitude (degrees, lat in [−90, 90]) to HEALPix
+// colatitude and longitude (rad); the colatitude is kept inside [0, π] against the
+// last-bit rounding of the degree-to-radian product at the poles.
 func latLonToThetaPhi(lon, lat float64) (float64, float64) {
 	th := (90 - lat) * degToRad
-	if th < 0 {
-		th = 0
-	}
-	if th > math.Pi {
-		th = math.Pi
-	}
+	th = math.Min(math.Max(th, 0), math.Pi)
 	return th, lon * degToRad
 }
 
 // Contains reports whether the pixel holding the direction is in the list.
 func (a *PixelList) Contains(lDeg, bDeg float64) bool {
+	if !(bDeg >= -90 && bDeg <= 90) {
+		return false
+	}
 	lon, lat := fromGal(a.System, lDeg, bDeg)
 	p := a.HP.Ang2Pix(latLonToThetaPhi(lon, lat))
 	_, ok := slices.BinarySearch(a.Pixels, p)

@@ -209,3 +209,19 @@ func TestNewArea(t *testing.T) {
 		}
 	}
 }
+
+// TestContainsBadLatitude: a latitude outside [−90, 90] is not a direction; every area
+// answers false rather than wrapping it.
+func TestContainsBadLatitude(t *testing.T) {
+	t.Parallel()
+	cone, _ := NewCone(0, 89, 5)
+	rect, _ := NewRect(Galactic, 0, 360, 80, 90)
+	pix, _ := NewPixelList(Galactic, 1, Ring, []int64{0, 1, 2, 3})
+	for _, a := range []Area{cone, rect, pix} {
+		for _, b := range []float64{90.5, -91, math.NaN()} {
+			if a.Contains(0, b) {
+				t.Errorf("%v contains b = %g", a, b)
+			}
+		}
+	}
+}

@@ -66,6 +66,11 @@ func DefaultParams() Params {
 }
 
 // Model is a normalised Galactic model: four components in one Galactocentric frame.
+//
+// The fields may be read freely, and the Model may be shared by goroutines that only read
+// it. Changing a component's shape after NewModel breaks the local normalisation: build a
+// new Model from changed Params instead (tests do change shapes on purpose). The only
+// supported mutation is SetInitialMassPerPresentMass, which must not race with readers.
 type Model struct {
 	Frame     *Frame
 	ThinDisc  *ThinDisc
