@@ -377,3 +377,26 @@ func TestBadOutputLeavesNothing(t *testing.T) {
 		t.Errorf("left behind: %s", e.Name())
 	}
 }
+
+// TestCancelMidRun: cancelling a run while chunks are queued ends it with the context's
+// error (no deadlock) and leaves no output.
+func TestCancelMidRun(t *testing.T) {
+	text := strings.Replace(cluster, "%FORMATS%", "parquet", 1)
+	text = strings.Replace(text, "total_mass_msun: 1500", "total_mass_msun: 200000", 1)
+	dir := t.TempDir()
+	ctx, cancel := context.WithCancel(context.Background())
+	n := 0
+	_, err := Run(ctx, parse(t, text), Options{Workers: 2, OutPath: filepath.Join(dir, "cat"), Progress: func(done, total int64) {
+		n++
+		if n == 3 {
+			cancel()
+		}
+	}})
+	if err == nil {
+		t.Fatal("cancelled run succeeded")
+	}
+	ents, _ := os.ReadDir(dir)
+	for _, e := range ents {
+		t.Errorf("left behind: %s", e.Name())
+	}
+}

@@ -2,6 +2,9 @@ package synth
 
 import (
 	"math"
+	"sort"
+
+	"github.com/starmock/starmock/evolve"
 
 	"github.com/starmock/starmock/internal/consts"
 	"github.com/starmock/starmock/synth/observe"
@@ -26,8 +29,21 @@ import (
 // every listed band (the smallest excess counts), which is conservative for at_least.
 // The bound is the largest grid mass below which every grid mass is undetectable
 // (a running maximum of the per-mass thresholds, so a bright evolved phase of a low mass closes the bound there).
+//
+// A second, sharper test applies to each drawn star: a star younger than the shortest
+// main-sequence lifetime of its mass over the allowed metallicities is on the main
+// sequence, where it is never brighter than at the end of that phase; it is skipped if
+// even that brightness (the brightest over metallicities, plus the pair boost and the
+// noise margin) cannot reach the detection limit at the inner edge of its shell. Masses
+// between grid points use the next grid mass up (shorter lifetime, brighter end of the
+// main sequence), which keeps the test conservative.
 type detectBound struct {
 	masses []float64
+	// tMS[i] is the shortest main-sequence lifetime (yr) of masses[i] over the
+	// metallicity grid; muMS[i] the distance modulus beyond which masses[i] cannot be
+	// detected anywhere on its main sequence.
+	tMS  []float64
+	muMS []float64
 	// muLimit[i] is the distance modulus above which every grid mass up to masses[i] is
 	// undetectable (a running maximum of the per-mass thresholds).
 	muLimit []float64
@@ -63,7 +79,9 @@ func newDetectBound(p *Plan, cp *ComponentPlan) (*detectBound, error) {
 	nb := len(sp.Bands)
 	abs := make([]float64, nb)
 	best := make([]float64, nb)
-	db := &detectBound{masses: make([]float64, nMass), muLimit: make([]float64, nMass), lo: lo}
+	db := &detectBound{masses: make([]float64, nMass), muLimit: make([]float64, nMass), lo: lo,
+		tMS: make([]float64, nMass), muMS: make([]float64, nMass)}
+	bestMS := make([]float64, nb)
 	ages := make([]float64, 0, nAge)
 	for i := 0; i < nAge; i++ {
 		t := float64(i) / float64(nAge-1)
@@ -79,7 +97,9 @@ func newDetectBound(p *Plan, cp *ComponentPlan) (*detectBound, error) {
 		db.masses[i] = m
 		for k := range best {
 			best[k] = math.Inf(1)
+			bestMS[k] = math.Inf(1)
 		}
+		db.tMS[i] = math.Inf(1)
 		for jf := 0; jf < nFeH; jf++ {
 			feh := fLo
 			if nFeH > 1 {
@@ -89,6 +109,25 @@ func newDetectBound(p *Plan, cp *ComponentPlan) (*detectBound, error) {
 			mod, err := p.model(key, fq)
 			if err != nil {
 				return nil, err
+			}
+			ts, err := mod.Timescales(m)
+			if err != nil {
+				return nil, err
+			}
+			db.tMS[i] = math.Min(db.tMS[i], ts.MSLifetimeYr)
+			if st, err := mod.Evolve(m, ts.MSLifetimeYr*(1-1e-9)); err == nil && hasLight(st) && st.Stage == evolve.MainSequence {
+				sp.Photo.AbsMags(st.TeffK, st.LoggCgs, fq, st.LuminosityLsun, abs)
+				for k := range abs {
+					if !math.IsNaN(abs[k]) && abs[k] < bestMS[k] {
+						bestMS[k] = abs[k]
+					}
+				}
+			} else if err != nil {
+				return nil, err
+			} else {
+				for k := range bestMS { // cannot tell: never skip this mass
+					bestMS[k] = math.Inf(-1)
+				}
 			}
 			for _, a := range ages {
 				st, err := mod.Evolve(m, a)
@@ -106,25 +145,8 @@ func newDetectBound(p *Plan, cp *ComponentPlan) (*detectBound, error) {
 				}
 			}
 		}
-		// μ at which this mass becomes undetectable in band k: M + μ − boost > m5 + margin.
-		muk := math.Inf(-1)
-		if !combineMax {
-			muk = math.Inf(1)
-		}
-		for _, k := range use {
-			v := sp.Specs[k].Limit5SigmaMag + boundMarginMag + binaryBoostMag - best[k]
-			if math.IsInf(best[k], 1) {
-				v = math.Inf(-1) // never any light: undetectable at any distance
-			}
-			if combineMax {
-				// undetectable if it fails in any band: the smallest μ threshold suffices
-				muk = math.Max(muk, -v)
-			} else {
-				muk = math.Min(muk, -v)
-			}
-		}
-		// muk holds −(threshold); convert back
-		thr := -muk
+		thr := threshold(sp, use, best, combineMax)
+		db.muMS[i] = threshold(sp, use, bestMS, combineMax)
 		if thr < running {
 			thr = running
 		}
@@ -132,6 +154,40 @@ func newDetectBound(p *Plan, cp *ComponentPlan) (*detectBound, error) {
 		db.muLimit[i] = running
 	}
 	return db, nil
+}
+
+// threshold returns the distance modulus beyond which a star whose brightest absolute
+// magnitudes per band are best cannot pass the rule: per band the star fails when
+// M + μ − boost > m5 + margin, i.e. μ > T_k = m5 + margin + boost − M; for all_of a failure
+// in any listed band suffices (min T_k), otherwise every listed band must fail (max T_k).
+// A band without light never detects (T_k = −∞).
+func threshold(sp *SurveyPlan, use []int, best []float64, combineMax bool) float64 {
+	thr := math.Inf(1)
+	if !combineMax {
+		thr = math.Inf(-1)
+	}
+	for _, k := range use {
+		t := sp.Specs[k].Limit5SigmaMag + boundMarginMag + binaryBoostMag - best[k]
+		if math.IsInf(best[k], 1) {
+			t = math.Inf(-1)
+		}
+		if combineMax {
+			thr = math.Min(thr, t)
+		} else {
+			thr = math.Max(thr, t)
+		}
+	}
+	return thr
+}
+
+// skipMainSequence reports whether a primary of initial mass m (Msun) and age (yr) is
+// certainly on the main sequence and too faint at distance modulus mu to be detected.
+func (d *detectBound) skipMainSequence(m, ageYr, mu float64) bool {
+	i := sort.SearchFloat64s(d.masses, m)
+	if i >= len(d.masses) {
+		return false
+	}
+	return ageYr < d.tMS[i] && mu > d.muMS[i]
 }
 
 // massBelowUndetectable returns the initial mass (Msun) below which no system at

@@ -1,25 +1,22 @@
 package synth
 
 import (
-	"math"
-
 	"github.com/starmock/starmock/synth/dust"
 	"github.com/starmock/starmock/synth/galaxy"
 )
 
-// fieldDust is the dust model of the field: none, the exponential dust disc of package
-// dust, or a user table of A_V versus distance per direction. The disc is evaluated along
-// the centre of the HEALPix pixel (nside 64, 0.92°, ring scheme) that holds the star, so
-// A_V varies across a large field while each worker keeps a small cache of sight lines.
+// fieldDust is the dust model of the field: none; an exponential dust layer in height
+// (no radial gradient), evaluated in closed form along each star's own direction
+// (dust.DiscParams.VerticalAV); or a user table of A_V versus distance per direction,
+// taken from the tabulated sight line nearest to the star.
+//
+// The layer defaults to the Li et al. (2018) scale height of 103 pc with the Sun 23 pc
+// above the dust mid-plane, and A_V = 1.0 mag per kpc at the Sun (package dust defaults).
 type fieldDust struct {
 	model  string
 	params dust.DiscParams
 	table  *dust.AVTable
-	hp     *galaxy.HEALPix
 }
-
-// dustNside is the HEALPix resolution of the disc's sight lines.
-const dustNside = 64
 
 func (s *Scenario) newFieldDust(m *galaxy.Model) (*fieldDust, error) {
 	d := s.Field.Dust
@@ -37,11 +34,6 @@ func (s *Scenario) newFieldDust(m *galaxy.Model) (*fieldDust, error) {
 		if err := fd.params.Validate(); err != nil {
 			return nil, s.errf("field.dust", "%v", err)
 		}
-		hp, err := galaxy.NewHEALPix(dustNside, galaxy.Ring)
-		if err != nil {
-			return nil, err
-		}
-		fd.hp = hp
 	case "table":
 		t, err := dust.LoadAVTable(s.resolvePath(d.Table))
 		if err != nil {
@@ -52,29 +44,14 @@ func (s *Scenario) newFieldDust(m *galaxy.Model) (*fieldDust, error) {
 	return fd, nil
 }
 
-// dustCache is a worker's cache of disc sight lines by pixel.
-type dustCache map[int64]*dust.ExpDisc
-
 // av returns A_V in mag to distance dPc along Galactic direction (l, b) in degrees.
-func (f *fieldDust) av(lDeg, bDeg, dPc float64, cache dustCache) (float64, error) {
+func (f *fieldDust) av(lDeg, bDeg, dPc float64) float64 {
 	switch f.model {
 	case "disc":
-		theta := (90 - bDeg) * math.Pi / 180
-		phi := lDeg * math.Pi / 180
-		pix := f.hp.Ang2Pix(theta, phi)
-		e, ok := cache[pix]
-		if !ok {
-			t, p := f.hp.Pix2Ang(pix)
-			var err error
-			if e, err = dust.NewExpDisc(f.params, p*180/math.Pi, 90-t*180/math.Pi); err != nil {
-				return 0, err
-			}
-			cache[pix] = e
-		}
-		return e.AV(dPc), nil
+		return f.params.VerticalAV(bDeg, dPc)
 	case "table":
 		sl, _ := f.table.Nearest(lDeg, bDeg)
-		return sl.AV(dPc), nil
+		return sl.AV(dPc)
 	}
-	return 0, nil
+	return 0
 }

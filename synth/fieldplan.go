@@ -7,6 +7,7 @@ import (
 	"math/rand/v2"
 	"sort"
 
+	"github.com/starmock/starmock/internal/consts"
 	"github.com/starmock/starmock/synth/dust"
 	"github.com/starmock/starmock/synth/galaxy"
 )
@@ -75,7 +76,9 @@ type fieldPlan struct {
 	massBound   []float64
 	pBound      []float64
 	counts      []int64
-	cum         []int64 // cum[i] = systems in shells before i
+	cum         []int64   // cum[i] = systems in shells before i
+	muInner     []float64 // distance modulus of each shell's inner edge
+	bound       *detectBound
 	imfLo       float64
 	ext         *extinctionPlan
 	dust        *fieldDust
@@ -112,6 +115,13 @@ func (cp *ComponentPlan) Shells() []ShellInfo {
 func (f *fieldPlan) locate(starIdx int64) fieldPos {
 	i := sort.Search(len(f.counts), func(i int) bool { return f.cum[i+1] > starIdx })
 	return fieldPos{shell: i}
+}
+
+// skip reports whether a drawn primary (mass m, age a) can never be detected: see
+// detectBound. Skipped stars are not evolved and get no catalogue row; they still were
+// drawn, so the catalogue is the full population minus stars that cannot be detected.
+func (f *fieldPlan) skip(fp fieldPos, m, ageYr float64) bool {
+	return f.bound != nil && f.bound.skipMainSequence(m, ageYr, f.muInner[fp.shell])
 }
 
 // mass draws a primary's initial mass from the IMF truncated below the shell's bound,
@@ -249,10 +259,16 @@ func (s *Scenario) newFieldPlan(ctx context.Context, p *Plan, cp *ComponentPlan,
 			return nil, s.errf(path, "%v", err)
 		}
 	}
+	f.bound = bound
+	f.muInner = make([]float64, n)
 	pr := newStream(p.Seed, cp.Index, 0, streamPlan)
 	for i, sm := range masses {
 		f.expectedAll[i] = sm.InitialMassMsun * c.DensityScale / f.meanSystemMsun
 		f.massBound[i] = f.imfLo
+		f.muInner[i] = math.Inf(-1)
+		if f.shells[i].InnerPc > 0 {
+			f.muInner[i] = consts.DistanceModulus(f.shells[i].InnerPc)
+		}
 		if bound != nil {
 			f.massBound[i] = bound.massBelowUndetectable(f.shells[i].InnerPc)
 		}

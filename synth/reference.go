@@ -79,12 +79,14 @@ field:                        required when there are Galactic components
   max_distance_pc: 50000      50 kpc), cut into logarithmic shells
   shells: 64
   dust:
-    model: disc               disc (exponential dust disc) | table (rows
-                              "distance_pc A_V") | none
+    model: disc               disc (dust layer exponential in height, no radial
+                              gradient, evaluated along each star's direction) |
+                              table (columns l_deg b_deg distance_pc av_mag; see
+                              package dust) | none
     law: ccm89
     rv: 3.1
-    av_per_kpc: 0.7           disc: A_V per kpc in the local plane
-    scale_height_pc: 110      disc: dust scale height
+    av_per_kpc: 1.0           disc: A_V per kpc at the Sun (default 1.0)
+    scale_height_pc: 103      disc: dust scale height (default 103, Li et al. 2018)
     table: av.txt
   skip_undetectable: true     do not simulate stars that cannot pass the detection
                               rule at any age, metallicity or extinction allowed

@@ -36,7 +36,6 @@ type worker struct {
 	plan     *Plan
 	models   map[int]*evolve.Model
 	samplers map[[2]int]*galaxy.ShellSampler // (component, shell)
-	dust     dustCache
 	nb       int
 	absP     []float64
 	absC     []float64
@@ -48,7 +47,7 @@ type worker struct {
 func newWorker(p *Plan) *worker {
 	nb := len(p.Survey.Bands)
 	return &worker{plan: p, models: map[int]*evolve.Model{}, nb: nb,
-		samplers: map[[2]int]*galaxy.ShellSampler{}, dust: dustCache{},
+		samplers: map[[2]int]*galaxy.ShellSampler{},
 		absP: make([]float64, nb), absC: make([]float64, nb), ratP: make([]float64, nb),
 		ratC: make([]float64, nb), det: make([]bool, nb)}
 }
@@ -115,7 +114,6 @@ func (w *worker) fill(ch ChunkRef, b *output.Batch) error {
 	rm := newStream(p.Seed, ch.Component, ch.Index, streamMass)
 	rs := newStream(p.Seed, ch.Component, ch.Index, streamStars)
 	sp := p.Survey
-	b.N = ch.N
 	ids := b.Cols[cStarID].([]int64)
 	comp := b.Cols[cComponent].([]string)
 	stage := b.Cols[cStage].([]string)
@@ -131,10 +129,9 @@ func (w *worker) fill(ch ChunkRef, b *output.Batch) error {
 	detAll := b.Cols[nFixedCols+perBandCols*w.nb].([]bool)
 	dom := b.Cols[cDomStage].([]string)
 
-	for j := 0; j < ch.N; j++ {
-		starIdx := ch.First + int64(j)
-		ids[j] = cp.FirstID + starIdx
-		comp[j] = cp.Name
+	j := 0 // output row; stars that cannot be detected (Galactic fields) get none
+	for si := 0; si < ch.N; si++ {
+		starIdx := ch.First + int64(si)
 
 		// Mass, age, metallicity, companion.
 		var m1 float64
@@ -146,7 +143,13 @@ func (w *worker) fill(ch ChunkRef, b *output.Batch) error {
 			m1 = cp.IMF.Rand(rm)
 		}
 		a := cp.Ages.Age(rs)
-		key, fq := quantiseFeH(cp.FeH.FeH(rs))
+		rawFeH := cp.FeH.FeH(rs)
+		if cp.field != nil && cp.field.skip(fp, m1, a) {
+			continue
+		}
+		ids[j] = cp.FirstID + starIdx
+		comp[j] = cp.Name
+		key, fq := quantiseFeH(rawFeH)
 		model, err := w.model(key, fq)
 		if err != nil {
 			return fmt.Errorf("component %s: %w", cp.Name, err)
@@ -176,9 +179,7 @@ func (w *worker) fill(ch ChunkRef, b *output.Batch) error {
 			vld(cEast)[j], vld(cNorth)[j], vld(cDepth)[j] = false, false, false
 			east[j], north[j], depth[j] = 0, 0, 0 // null: keep the bytes under nulls deterministic
 			d = dpc
-			if avBase, err = cp.ext.field.av(l, bb, d, w.dust); err != nil {
-				return fmt.Errorf("component %s: %w", cp.Name, err)
-			}
+			avBase = cp.ext.field.av(l, bb, d)
 		}
 		mu := consts.DistanceModulus(d)
 		avj := cp.ext.drawAV(avBase, rs)
@@ -271,7 +272,9 @@ func (w *worker) fill(ch ChunkRef, b *output.Batch) error {
 			w.det[k] = meas.Detected
 		}
 		detAll[j] = sp.Detection.Passes(w.det)
+		j++
 	}
+	b.N = j
 	return nil
 }
 
@@ -368,6 +371,7 @@ func (p *Plan) Run(ctx context.Context, chunks []ChunkRef, workers int, sink fun
 			select {
 			case jobs <- job{ch, out}:
 			case <-ctx.Done():
+				out <- result{err: ctx.Err()} // the writer waits on every queued chunk
 				return
 			}
 		}

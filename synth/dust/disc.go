@@ -242,15 +242,19 @@ func (e *ExpDisc) AV(distancePc float64) float64 {
 // On one side of the mid-plane this is rewritten without cancellation as
 // −sgn(z) h_z expm1(−(|z₁| − |z☉|)/h_z) / sin b.
 func (e *ExpDisc) vertical(d float64) float64 {
-	if e.a0 == 0 || d == 0 {
+	return verticalAV(e.a0, e.p.ScaleHeightPc, e.p.SunHeightPc, e.sb, d)
+}
+
+// verticalAV is the closed-form A_V (mag) to distance d (pc) of a disc with no radial
+// gradient: a0 (mag/pc at the Sun's height z0, pc), scale height hz (pc), sin b = sb.
+func verticalAV(a0, hz, z0, sb, d float64) float64 {
+	if a0 == 0 || d == 0 {
 		return 0
 	}
-	if e.sb == 0 {
-		return e.a0 * d
+	if sb == 0 {
+		return a0 * d
 	}
-	hz := e.p.ScaleHeightPc
-	z0 := e.p.SunHeightPc
-	z1 := z0 + d*e.sb
+	z1 := z0 + d*sb
 	var integral float64
 	if z0*z1 >= 0 { // same side (or touching the plane at one end)
 		sgn := math.Copysign(1, z0)
@@ -262,7 +266,24 @@ func (e *ExpDisc) vertical(d float64) float64 {
 		g := func(z float64) float64 { return -math.Copysign(1, z) * hz * math.Expm1(-math.Abs(z)/hz) }
 		integral = (g(z1) - g(z0)) * math.Exp(math.Abs(z0)/hz)
 	}
-	return e.a0 * integral / e.sb
+	return a0 * integral / sb
+}
+
+// VerticalAV returns the extinction A_V in mag to distancePc (pc) along Galactic latitude
+// bDeg (degrees, [−90, 90]) through a dust disc without radial gradient — p's
+// ScaleLengthPc is ignored, as if it were +Inf — in the closed form of the ExpDisc type
+// doc:
+//
+//	A_V(d) = A₀ ∫₀^d exp(−(|z☉ + s sin b| − |z☉|)/h_z) ds
+//
+// It needs no table, so a caller can evaluate it for every star's own direction. The
+// parameters are not validated here (call p.Validate once); distancePc must be ≥ 0.
+func (p DiscParams) VerticalAV(bDeg, distancePc float64) float64 {
+	sb := math.Sin(bDeg * math.Pi / 180)
+	if math.Abs(bDeg) == 90 {
+		sb = math.Copysign(1, bDeg)
+	}
+	return verticalAV(p.AVPerKpc/1000, p.ScaleHeightPc, p.SunHeightPc, sb, distancePc)
 }
 
 // Gauss–Legendre 5-point nodes and weights on [−1, 1] (Abramowitz & Stegun
