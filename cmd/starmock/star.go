@@ -81,6 +81,9 @@ type starReport struct {
 	EndAGBAgeYr     *float64 `json:"end_agb_age_yr"`
 	Remnant         *string  `json:"remnant"`
 	RemnantMassMsun *float64 `json:"remnant_mass_msun"`
+	// Photometry holds abs_mag, spectral_type, luminosity_class and phot_quality,
+	// embedded at the top level of the JSON object (see star_phot.go).
+	*starPhotometry `json:",omitempty"`
 }
 
 func newStarCmd(stdout, stderr io.Writer) *cobra.Command {
@@ -96,12 +99,18 @@ func newStarCmd(stdout, stderr io.Writer) *cobra.Command {
 			if err != nil {
 				return err
 			}
+			if err := addPhotometry(rep); err != nil {
+				return err
+			}
 			if o.json {
 				enc := json.NewEncoder(stdout)
 				enc.SetIndent("", "  ")
 				return enc.Encode(rep)
 			}
-			return printStarReport(stdout, rep)
+			if err := printStarReport(stdout, rep); err != nil {
+				return err
+			}
+			return printPhotometry(stdout, rep)
 		},
 	}
 	f := cmd.Flags()
