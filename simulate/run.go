@@ -205,7 +205,7 @@ func Run(ctx context.Context, s *synth.Scenario, opts Options) (*Report, error) 
 			}
 		}
 		rep.Rows += int64(out.N)
-		done += int64(b.N)
+		done += int64(r.Chunk.N) // stars drawn, including field stars skipped as undetectable
 		if opts.Progress != nil {
 			opts.Progress(done, total)
 		}

@@ -7,6 +7,7 @@ import (
 	"math/rand/v2"
 	"sort"
 
+	"github.com/starmock/starmock/evolve"
 	"github.com/starmock/starmock/internal/consts"
 	"github.com/starmock/starmock/synth/dust"
 	"github.com/starmock/starmock/synth/galaxy"
@@ -92,7 +93,8 @@ type ShellInfo struct {
 	InnerPc, OuterPc float64
 	// ExpectedSystems is the expected number of systems in the shell; ExpectedSimulated
 	// the part that can pass the detection rule (the rest is skipped); Drawn the Poisson
-	// number simulated; MassBoundMsun the initial mass below which primaries were skipped.
+	// number simulated; MassBoundMsun the initial mass below which primaries were not
+	// drawn (they cannot be detected at any age).
 	ExpectedSystems, ExpectedSimulated float64
 	Drawn                              int64
 	MassBoundMsun                      float64
@@ -117,18 +119,36 @@ func (f *fieldPlan) locate(starIdx int64) fieldPos {
 	return fieldPos{shell: i}
 }
 
-// skip reports whether a drawn primary (mass m, age a) can never be detected: see
-// detectBound. Skipped stars are not evolved and get no catalogue row; they still were
-// drawn, so the catalogue is the full population minus stars that cannot be detected.
-func (f *fieldPlan) skip(fp fieldPos, m, ageYr float64) bool {
-	return f.bound != nil && f.bound.skipMainSequence(m, ageYr, f.muInner[fp.shell])
+// skip reports whether a drawn system (primary mass m1, companion mass m2 or 0, age) can
+// never be detected: see detectBound. Skipped stars are not evolved and get no catalogue
+// row; they still were drawn, so the catalogue is the full population minus systems that
+// cannot be detected.
+func (f *fieldPlan) skip(fp fieldPos, m1, m2, ageYr float64) bool {
+	return f.bound != nil && f.bound.skipSystem(m1, m2, ageYr, f.muInner[fp.shell])
 }
 
-// mass draws a primary's initial mass from the IMF truncated below the shell's bound,
-// by quantile: m = F⁻¹(p_bound + u (1 − p_bound)) (one uniform draw).
-func (f *fieldPlan) mass(cp *ComponentPlan, fp fieldPos, r *rand.Rand) float64 {
+// skipFaint reports whether an evolved system (primary s1, companion s2 with their light
+// flags) can never be detected in its shell: see detectBound.skipLuminosity.
+func (f *fieldPlan) skipFaint(fp fieldPos, s1, s2 evolve.Star, light1, light2 bool) bool {
+	if f.bound == nil {
+		return false
+	}
+	l := 0.0
+	if light1 {
+		l += s1.LuminosityLsun
+	}
+	if light2 {
+		l += s2.LuminosityLsun
+	}
+	return f.bound.skipLuminosity(l, f.muInner[fp.shell])
+}
+
+// draw draws a field primary's initial mass (Msun) from the IMF truncated below the
+// shell's bound, by quantile m = F⁻¹(p_bound + u (1 − p_bound)) (one draw of rm), and its
+// age from the history (package synth's AgeSampler, draws of rs).
+func (f *fieldPlan) draw(cp *ComponentPlan, fp fieldPos, rm, rs *rand.Rand) (massMsun, ageYr float64) {
 	p0 := f.pBound[fp.shell]
-	return cp.IMF.Quantile(p0 + r.Float64()*(1-p0))
+	return cp.IMF.Quantile(p0 + rm.Float64()*(1-p0)), cp.Ages.Age(rs)
 }
 
 func (s *Scenario) buildArea() (galaxy.Area, error) {
@@ -272,10 +292,7 @@ func (s *Scenario) newFieldPlan(ctx context.Context, p *Plan, cp *ComponentPlan,
 		if bound != nil {
 			f.massBound[i] = bound.massBelowUndetectable(f.shells[i].InnerPc)
 		}
-		f.pBound[i] = cp.IMF.CDF(f.massBound[i])
-		if f.pBound[i] >= 1 {
-			f.pBound[i] = 1
-		}
+		f.pBound[i] = math.Min(1, cp.IMF.CDF(f.massBound[i]))
 		f.expected[i] = f.expectedAll[i] * (1 - f.pBound[i])
 		k, err := galaxy.PoissonCount(f.expected[i], pr)
 		if err != nil {

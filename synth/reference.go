@@ -115,7 +115,7 @@ output:
   formats: [parquet]          any of parquet, arrow, fits, csv (CSV is ECSV: the
                               header carries units and the manifest)
   columns: [star_id, ...]     a subset of the catalogue columns (default: all)
-  chunk_size: 65536           stars per chunk; fixes the random streams (changing it
+  chunk_size: 32768           stars per chunk; fixes the random streams (changing it
                               changes the catalogue)
   workers: 0                  goroutines; 0 = all CPUs; never changes the catalogue
   detected_only: false        write only stars that pass the detection rule`

@@ -161,3 +161,37 @@ func TestStreams(t *testing.T) {
 		}
 	}
 }
+
+// TestAgeQuantiles: for every star-formation history, Quantile inverts CDF (to 1e-9
+// relative) and CDF agrees with the empirical distribution of Age draws (KS, false-alarm
+// rate 1e-3) — so the age-cell sampling of Galactic fields and the direct sampling of
+// clusters draw from the same distribution.
+func TestAgeQuantiles(t *testing.T) {
+	pl, err := newPiecewiseLinear([]float64{0, 2e9, 8e9, 12e9}, []float64{1, 3, 0.5, 0.5})
+	if err != nil {
+		t.Fatal(err)
+	}
+	hists := map[string]AgeSampler{
+		"burst":       burstAges{ageYr: 11e9, spreadYr: 1.5e9},
+		"constant":    constantAges{minYr: 0, maxYr: 10e9},
+		"exponential": expAges{minYr: 1e9, maxYr: 12e9, tauYr: 4e9},
+		"table":       tableAges{pl},
+	}
+	for name, h := range hists {
+		for _, p := range []float64{0.001, 0.1, 0.5, 0.9, 0.999} {
+			a := h.Quantile(p)
+			if got := h.CDF(a); math.Abs(got-p) > 1e-9 {
+				t.Errorf("%s: CDF(Quantile(%g)) = %.12g", name, p, got)
+			}
+		}
+		r := rand.New(rand.NewPCG(21, 22))
+		const n = 50000
+		xs := make([]float64, n)
+		for i := range xs {
+			xs[i] = h.Age(r)
+		}
+		if d := ksD(xs, h.CDF); d > ksCrit(n) {
+			t.Errorf("%s: KS D = %.4g > %.4g", name, d, ksCrit(n))
+		}
+	}
+}

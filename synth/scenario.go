@@ -207,7 +207,7 @@ type Output struct {
 	Formats []string `yaml:"formats,omitempty" json:"formats"`
 	// Columns restricts the catalogue to these columns (default: all).
 	Columns []string `yaml:"columns,omitempty" json:"columns,omitempty"`
-	// ChunkSize is the number of stars per chunk (default 65536). It fixes the random
+	// ChunkSize is the number of stars per chunk (default 32768). It fixes the random
 	// streams, so changing it changes the catalogue.
 	ChunkSize int `yaml:"chunk_size,omitempty" json:"chunk_size"`
 	// Workers is the number of goroutines (default: the number of CPUs). It never changes

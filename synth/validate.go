@@ -15,7 +15,7 @@ const (
 	// MaxDistancePc bounds distances to the Local Group scale (1 Mpc).
 	MaxDistancePc = 1e6
 	// DefaultChunkSize is the number of stars per chunk when the scenario gives none.
-	DefaultChunkSize = 65536
+	DefaultChunkSize = 32768
 	// MaxChunkSize bounds a chunk's memory.
 	MaxChunkSize = 1 << 22
 )

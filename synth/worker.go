@@ -48,7 +48,7 @@ func newWorker(p *Plan) *worker {
 	nb := len(p.Survey.Bands)
 	return &worker{plan: p, models: map[int]*evolve.Model{}, nb: nb,
 		samplers: map[[2]int]*galaxy.ShellSampler{},
-		absP: make([]float64, nb), absC: make([]float64, nb), ratP: make([]float64, nb),
+		absP:     make([]float64, nb), absC: make([]float64, nb), ratP: make([]float64, nb),
 		ratC: make([]float64, nb), det: make([]bool, nb)}
 }
 
@@ -107,7 +107,9 @@ const (
 // columns with capacity ≥ the chunk size). The draws of chunk (component c, index k) come
 // from the streams (seed, c, k, mass) and (seed, c, k, stars) only, in a fixed order per
 // star: mass; then age, [Fe/H], binary (two uniforms), position, A_V spread, and two per
-// band for the observation.
+// band for the observation. In Galactic fields a system that cannot be detected is
+// dropped after its binary draw (mass–age test) or after its evolution (luminosity test)
+// and gets no row; the remaining draws of the stream then go to the next star.
 func (w *worker) fill(ch ChunkRef, b *output.Batch) error {
 	p := w.plan
 	cp := p.Components[ch.Component]
@@ -134,30 +136,47 @@ func (w *worker) fill(ch ChunkRef, b *output.Batch) error {
 		starIdx := ch.First + int64(si)
 
 		// Mass, age, metallicity, companion.
-		var m1 float64
+		var m1, a float64
 		var fp fieldPos
 		if cp.field != nil {
 			fp = cp.field.locate(starIdx)
-			m1 = cp.field.mass(cp, fp, rm)
+			m1, a = cp.field.draw(cp, fp, rm, rs)
 		} else {
 			m1 = cp.IMF.Rand(rm)
+			a = cp.Ages.Age(rs)
 		}
-		a := cp.Ages.Age(rs)
 		rawFeH := cp.FeH.FeH(rs)
-		if cp.field != nil && cp.field.skip(fp, m1, a) {
+		m2 := 0.0
+		if cp.binaries != nil {
+			m2 = cp.binaries.draw(m1, rs)
+		}
+		if cp.field != nil && cp.field.skip(fp, m1, m2, a) {
 			continue
 		}
-		ids[j] = cp.FirstID + starIdx
-		comp[j] = cp.Name
 		key, fq := quantiseFeH(rawFeH)
 		model, err := w.model(key, fq)
 		if err != nil {
 			return fmt.Errorf("component %s: %w", cp.Name, err)
 		}
-		m2 := 0.0
-		if cp.binaries != nil {
-			m2 = cp.binaries.draw(m1, rs)
+
+		// Evolution of both members.
+		s1, err := model.Evolve(m1, a)
+		if err != nil {
+			return fmt.Errorf("component %s, star %d: %w", cp.Name, cp.FirstID+starIdx, err)
 		}
+		var s2 evolve.Star
+		evolved2 := m2 >= minEvolveMass
+		if evolved2 {
+			if s2, err = model.Evolve(m2, a); err != nil {
+				return fmt.Errorf("component %s, star %d companion: %w", cp.Name, cp.FirstID+starIdx, err)
+			}
+		}
+		light1, light2 := hasLight(s1), evolved2 && hasLight(s2)
+		if cp.field != nil && cp.field.skipFaint(fp, s1, s2, light1, light2) {
+			continue
+		}
+		ids[j] = cp.FirstID + starIdx
+		comp[j] = cp.Name
 
 		// Position.
 		var d, avBase float64
@@ -185,15 +204,10 @@ func (w *worker) fill(ch ChunkRef, b *output.Batch) error {
 		avj := cp.ext.drawAV(avBase, rs)
 		dist[j], dm[j], av[j], ebv[j] = float32(d), float32(mu), float32(avj), float32(avj*cp.ext.ebvPerAV)
 
-		// Evolution of the primary.
-		s1, err := model.Evolve(m1, a)
-		if err != nil {
-			return fmt.Errorf("component %s, star %d: %w", cp.Name, ids[j], err)
-		}
+		// The primary.
 		stage[j] = s1.Stage.String()
 		massInit[j], mass[j], age[j], feh[j] = float32(m1), float32(s1.MassMsun), float32(a), float32(fq)
 		lum[j], teff[j], rad[j], logg[j], core[j] = float32(s1.LuminosityLsun), float32(s1.TeffK), float32(s1.RadiusRsun), float32(s1.LoggCgs), float32(s1.CoreMassMsun)
-		light1 := hasLight(s1)
 		for _, c := range []int{cLum, cTeff, cRadius, cLogg} {
 			vld(c)[j] = light1
 		}
@@ -220,18 +234,12 @@ func (w *worker) fill(ch ChunkRef, b *output.Batch) error {
 		vld(cCompMassInit)[j] = cv
 		cmi[j], cm[j], clum[j], cteff[j] = 0, 0, 0, 0 // values under nulls are written by some formats
 		cst[j] = ""
-		light2 := false
 		dom[j] = stage[j]
 		if cv {
 			cmi[j] = float32(m2)
-			if m2 >= minEvolveMass {
-				s2, err := model.Evolve(m2, a)
-				if err != nil {
-					return fmt.Errorf("component %s, star %d companion: %w", cp.Name, ids[j], err)
-				}
+			if evolved2 {
 				cm[j], cst[j], clum[j], cteff[j] = float32(s2.MassMsun), s2.Stage.String(), float32(s2.LuminosityLsun), float32(s2.TeffK)
 				vld(cCompMass)[j] = true
-				light2 = hasLight(s2)
 				vld(cCompLum)[j], vld(cCompTeff)[j] = light2, light2
 				if light2 {
 					w.photometry(s2, fq, avj, cp.ext, w.absC, w.ratC)
@@ -333,18 +341,21 @@ type Result struct {
 
 // Run simulates the given chunks of the plan with the given number of workers and hands
 // each finished batch to sink in chunk order, one at a time, from a single goroutine.
-// Memory is bounded: at most 2×workers+2 batches of ChunkSize rows exist at once. The
+// Memory is bounded: at most 4×workers+2 batches of ChunkSize rows exist at once. The
 // batch passed to sink is reused after sink returns. Results never depend on workers.
 //
-// At most workers+1 chunks are outstanding (dispatched and not yet handed to sink), each
-// holding at most one batch, so a worker never waits for a batch that only a later chunk
-// could free.
+// Up to 4×workers chunks may run ahead of the one the writer waits for, so that workers
+// keep busy when chunk costs vary (near and far shells of a Galactic field differ by
+// orders of magnitude). At most 4×workers+1 chunks are outstanding (dispatched and not yet
+// handed to sink), each holding at most one batch, so a worker never waits for a batch
+// that only a later chunk could free.
 func (p *Plan) Run(ctx context.Context, chunks []ChunkRef, workers int, sink func(Result) error) error {
 	if workers < 1 {
 		workers = 1
 	}
 	cols := p.Columns()
-	nBuf := 2*workers + 2
+	ahead := 4 * workers
+	nBuf := ahead + 2
 	free := make(chan *output.Batch, nBuf)
 	for i := 0; i < nBuf; i++ {
 		free <- output.NewBatch(cols, p.ChunkSize)
@@ -354,7 +365,7 @@ func (p *Plan) Run(ctx context.Context, chunks []ChunkRef, workers int, sink fun
 		out chan result
 	}
 	jobs := make(chan job)
-	order := make(chan chan result, workers)
+	order := make(chan chan result, ahead)
 	ctx, cancel := context.WithCancel(ctx)
 	defer cancel()
 
