@@ -316,23 +316,28 @@ func TestFieldSkipUndetectableSameSample(t *testing.T) {
 	}
 }
 
-// BenchmarkSkipUndetectable times the 0.5 deg² field of TestFieldSkipUndetectableSameSample
-// with the bound on and off, reporting the stars simulated per run.
+// BenchmarkSkipUndetectable times the field of TestFieldSkipUndetectableSameSample (g ≈ 22,
+// r ≈ 21.5 at b = 40°) with the bound off and on, for a 0.5 deg² cone (radius 0.4°) and a
+// 12.6 deg² cone (radius 2°), reporting the stars simulated per run. The bound is built
+// once per run and component (a grid of evolved masses, ages and metallicities), so it
+// pays off only when the field is large enough.
 func BenchmarkSkipUndetectable(b *testing.B) {
-	for _, skip := range []bool{false, true} {
-		name := "off"
-		if skip {
-			name = "on"
-		}
-		b.Run(name, func(b *testing.B) {
-			b.ReportAllocs()
-			var stars int64
-			for i := 0; i < b.N; i++ {
-				rep, _, _ := fieldRun(b, skipScenario("0.4", skip), func(*fieldRow) {})
-				stars = rep.Stars
+	for _, radius := range []string{"0.4", "2"} {
+		for _, skip := range []bool{false, true} {
+			name := "radius" + radius + "deg/off"
+			if skip {
+				name = "radius" + radius + "deg/on"
 			}
-			b.ReportMetric(float64(stars), "stars/op")
-		})
+			b.Run(name, func(b *testing.B) {
+				b.ReportAllocs()
+				var stars int64
+				for i := 0; i < b.N; i++ {
+					rep, _, _ := fieldRun(b, skipScenario(radius, skip), func(*fieldRow) {})
+					stars = rep.Stars
+				}
+				b.ReportMetric(float64(stars), "stars/op")
+			})
+		}
 	}
 }
 
@@ -421,11 +426,12 @@ func skyCounts(t *testing.T, limit string, nside int64, pixels []int64, mags []f
 // practice). Catalogue counts are complete at these magnitudes (the reference row says to
 // V ≈ 8–9), and their own Poisson errors are ≤ 4 %, so they are neglected.
 //
-// Runtime: the full sky to V = 5 simulates ~8e7 systems (~20 min on 2 CPUs), so the
-// default version estimates the whole-sky counts at V < 4 and V < 5 from 3 of the 192
-// nside-4 HEALPix pixels (RING 10, 74, 140 at b ≈ +54°, +10°, −30°: 1/64 of the sky,
-// ~20 s). STARMOCK_LONG=1 runs the whole sky to V = 6 and, for V = 7 and 8, 12 pixels
-// (every 16th, 1/16 of the sky).
+// Runtime: 1/64 of the sky to a limit of V = 5 simulates ~7e6 systems in ~20 s on 2 CPUs,
+// so the full sky would take ~25 min at V = 5 and hours at V = 8. The default version
+// therefore estimates the whole-sky counts at V < 4 and V < 5 from 3 of the 192 nside-4
+// HEALPix pixels (RING 10, 74, 140 at b ≈ +54°, +10°, −30°: 1/64 of the sky).
+// STARMOCK_LONG=1 estimates V < 4, 5, 6 from 12 pixels (every 16th from 8: 1/16 of the
+// sky, limit V = 6) and V < 7, 8 from the same 3 pixels as the default (limit V = 8).
 func TestFieldStarCountsWholeSky(t *testing.T) {
 	ref := refValues(t)
 	type job struct {
@@ -439,7 +445,7 @@ func TestFieldStarCountsWholeSky(t *testing.T) {
 		for p := int64(8); p < 192; p += 16 {
 			every16 = append(every16, p)
 		}
-		jobs = []job{{"6", []float64{4, 5, 6}, nil}, {"8", []float64{7, 8}, every16}}
+		jobs = []job{{"6", []float64{4, 5, 6}, every16}, {"8", []float64{7, 8}, []int64{10, 74, 140}}}
 	}
 	const npix = 192 // nside 4
 	for _, j := range jobs {
@@ -529,7 +535,7 @@ func poissonOutside(n, muLo, muHi, alpha float64) bool {
 }
 
 // TestFieldLocalDensityAndLF simulates every star within 25 pc of the Sun (whole sky, no
-// dust, no skipping; STARMOCK_LONG=1: 60 pc) and checks:
+// dust, no skipping; STARMOCK_LONG=1: 100 pc, the census volume) and checks:
 //
 //  1. the present-day mass density of stars and remnants (primaries plus companions,
 //     column mass_msun and companion_mass_msun) against the model's normalisation, 0.040
@@ -548,7 +554,7 @@ func TestFieldLocalDensityAndLF(t *testing.T) {
 	ref := refValues(t)
 	rMax := 25.0
 	if longField() {
-		rMax = 60
+		rMax = 100
 	}
 	const rMin = 0.5
 	text := strings.Replace(localField, "%R%", strconv.FormatFloat(rMax, 'g', -1, 64), 1)
