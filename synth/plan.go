@@ -7,6 +7,7 @@ import (
 	"sync"
 
 	"github.com/starmock/starmock/evolve"
+	"github.com/starmock/starmock/synth/galaxy"
 
 	"github.com/starmock/starmock/imf"
 )
@@ -30,6 +31,31 @@ type Plan struct {
 
 	modelMu sync.Mutex
 	models  map[int]*evolve.Model // evolution models by rounded [Fe/H] (see quantiseFeH)
+
+	samplerMu sync.Mutex
+	samplers  map[[2]int]*galaxy.ShellSampler // (component, shell)
+}
+
+// sampler returns the position sampler of a Galactic component's shell, building it
+// once per plan (galaxy.ShellSampler is safe for concurrent use and its draws depend
+// only on the random stream passed in).
+func (p *Plan) sampler(comp, shell int) (*galaxy.ShellSampler, error) {
+	p.samplerMu.Lock()
+	defer p.samplerMu.Unlock()
+	key := [2]int{comp, shell}
+	if s, ok := p.samplers[key]; ok {
+		return s, nil
+	}
+	f := p.Components[comp].field
+	s, err := f.model.NewShellSampler(f.area, f.shells[shell], f.name)
+	if err != nil {
+		return nil, err
+	}
+	if p.samplers == nil {
+		p.samplers = map[[2]int]*galaxy.ShellSampler{}
+	}
+	p.samplers[key] = s
+	return s, nil
 }
 
 // model returns the evolution model of the rounded metallicity key (fehRounded dex),

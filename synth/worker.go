@@ -287,13 +287,13 @@ func (w *worker) fill(ch ChunkRef, b *output.Batch) error {
 }
 
 // fieldPosition draws a field star's direction and distance inside its shell, with
-// density-weighted rejection sampling (package galaxy) from a per-worker sampler.
+// density-weighted rejection sampling (package galaxy); the sampler of each shell is
+// built once per plan and cached in the worker.
 func (w *worker) fieldPosition(comp, shell int, r *rand.Rand) (l, b, d float64, err error) {
 	key := [2]int{comp, shell}
 	s, ok := w.samplers[key]
 	if !ok {
-		f := w.plan.Components[comp].field
-		if s, err = f.model.NewShellSampler(f.area, f.shells[shell], f.name); err != nil {
+		if s, err = w.plan.sampler(comp, shell); err != nil {
 			return 0, 0, 0, err
 		}
 		w.samplers[key] = s
