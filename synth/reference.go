@@ -93,7 +93,10 @@ field:                        required when there are Galactic components
 survey:
   name: free text
   bands:                      one entry per band (see 'starmock bands')
-    - band: g
+    - band: g                 a built-in band, or a name for the filter in passband
+      passband: my_filter.tsv user filter (wavelength_angstrom, throughput; response
+                              kind in the header): AB magnitudes with blackbody colour
+                              terms, approximate for cool stars
       limit_5sigma_mag: 24.5  magnitude of S/N = 5 for a point source
       floor_mag: 0.005        systematic error, added in quadrature (default 0.005)
       saturation_mag: 16      brighter stars are flagged saturated, not detected

@@ -166,8 +166,13 @@ type Survey struct {
 
 // SurveyBand is one band of a survey.
 type SurveyBand struct {
-	// Band is a built-in band name (see `starmock bands`).
+	// Band is a built-in band name (see `starmock bands`), or the name given to a user
+	// filter read from Passband.
 	Band string `yaml:"band" json:"band"`
+	// Passband is a user filter file (wavelength_angstrom, throughput; see package phot)
+	// whose AB magnitudes are computed with blackbody colour terms tied to the nearest
+	// built-in band (approximate for cool stars, flagged "blackbody").
+	Passband string `yaml:"passband,omitempty" json:"passband,omitempty"`
 	// Limit5SigmaMag is the magnitude at which a point source has S/N = 5.
 	Limit5SigmaMag float64 `yaml:"limit_5sigma_mag" json:"limit_5sigma_mag"`
 	// FloorMag is the systematic error added in quadrature (mag). Default 0.005.

@@ -2,6 +2,7 @@ package synth
 
 import (
 	"errors"
+	"math"
 	"os"
 	"path/filepath"
 	"strings"
@@ -136,5 +137,52 @@ func TestTableErrors(t *testing.T) {
 	_, err = NewPlan(t.Context(), s)
 	if err == nil || !strings.Contains(err.Error(), "sfh.txt:3") || !strings.Contains(err.Error(), "does not increase") {
 		t.Errorf("want a file:line error for a non-increasing table, got %v", err)
+	}
+}
+
+// TestUserPassbandAndRubinBands: a survey may use a user filter file and the Rubin bands
+// (no empirical corrections); both get blackbody colour terms and magnitudes, and a bad
+// passband file is an error naming the key.
+func TestUserPassbandAndRubinBands(t *testing.T) {
+	dir := t.TempDir()
+	pb := filepath.Join(dir, "filter.tsv")
+	text := "# invented test filter: a box from 5000 to 6000 angstrom\n# response_kind: photon\nwavelength_angstrom\tthroughput\n4990\t0\n5000\t1\n6000\t1\n6010\t0\n"
+	if err := os.WriteFile(pb, []byte(text), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	sc := strings.Replace(base, "    - {band: r, limit_5sigma_mag: 23.5, saturation_mag: 15}",
+		"    - {band: box, passband: filter.tsv, limit_5sigma_mag: 23.5, saturation_mag: 15}\n    - {band: lsst_r, limit_5sigma_mag: 24, saturation_mag: 16}", 1)
+	s, err := Parse(filepath.Join(dir, "s.yaml"), []byte(sc))
+	if err != nil {
+		t.Fatal(err)
+	}
+	p, err := NewPlan(t.Context(), s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := p.Survey.Bands[1].PivotAA; math.Abs(got-5500) > 30 {
+		t.Errorf("box filter pivot %.1f Å, want about 5500 (box 5000–6000 Å, common practice)", got)
+	}
+	mags := make([]float64, len(p.Survey.Bands))
+	q := p.Survey.Photo.AbsMags(5772, 4.438, 0, 1, mags)
+	for k, m := range mags {
+		if math.IsNaN(m) {
+			t.Errorf("band %s: no magnitude for the Sun", p.Survey.Bands[k].Name)
+		}
+	}
+	if q.String() != "blackbody" {
+		t.Errorf("quality %s, want blackbody for a survey with user/Rubin bands", q)
+	}
+	// A V-like box and the built-in g bracket the solar V magnitude (4.8) loosely.
+	if mags[1] < 4.0 || mags[1] > 5.6 {
+		t.Errorf("solar AB magnitude in the 5000-6000 Å box %.2f, want 4.0-5.6 (the Sun's V is 4.81)", mags[1])
+	}
+	bad := strings.Replace(sc, "filter.tsv", "missing.tsv", 1)
+	s2, err := Parse(filepath.Join(dir, "s2.yaml"), []byte(bad))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := NewPlan(t.Context(), s2); err == nil || !strings.Contains(err.Error(), "survey.bands[1].passband") {
+		t.Errorf("missing passband file: got %v", err)
 	}
 }

@@ -28,16 +28,34 @@ func (s *Scenario) surveyPlan() (*SurveyPlan, error) {
 		names[i] = b.Band
 	}
 	sp := &SurveyPlan{Name: sv.Name, tables: map[string]*dust.BandTable{}}
-	for i, n := range names {
-		b, err := phot.LookupBand(n)
-		if err != nil {
-			return nil, s.errf(fmt.Sprintf("survey.bands[%d].band", i), "%v", err)
-		}
-		sp.Bands = append(sp.Bands, b)
-	}
 	grid, err := phot.DefaultGrid()
 	if err != nil {
 		return nil, fmt.Errorf("built-in bolometric-correction grid: %w", err)
+	}
+	var extra []phot.Band
+	for i, n := range names {
+		var b phot.Band
+		if path := sv.Bands[i].Passband; path != "" {
+			pb, err := phot.LoadPassband(s.resolvePath(path))
+			if err != nil {
+				return nil, s.errf(fmt.Sprintf("survey.bands[%d].passband", i), "%v", err)
+			}
+			b = phot.Band{Name: n, System: phot.SystemAB, PivotAA: pb.PivotAA(), Source: "user passband " + path, Curve: pb}
+		} else if b, err = phot.LookupBand(n); err != nil {
+			return nil, s.errf(fmt.Sprintf("survey.bands[%d].band", i), "%v (or give a passband file)", err)
+		}
+		if grid.BandIndex(n) < 0 {
+			extra = append(extra, b)
+		}
+		sp.Bands = append(sp.Bands, b)
+	}
+	if len(extra) > 0 {
+		// Bands without empirical corrections (user filters, Rubin) get blackbody colour
+		// terms tied to the nearest built-in band (phot.ExtendGrid); their stars are flagged
+		// "blackbody" in phot_quality, approximate for cool stars.
+		if grid, err = phot.ExtendGrid(grid, extra); err != nil {
+			return nil, s.errf("survey.bands", "%v", err)
+		}
 	}
 	if sp.Photo, err = phot.NewPhotometer(grid, names); err != nil {
 		return nil, s.errf("survey.bands", "%v", err)
