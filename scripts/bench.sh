@@ -10,7 +10,8 @@
 #                              (output.WriteRandomFloor)
 # and prints stars/s, floor rows/s, their ratio and each process's peak resident memory
 # (/usr/bin/time -f %M when present, else the VmHWM the benchmark reads from
-# /proc/self/status and reports as peak-RSS-MiB).
+# /proc/self/status and reports as peak-RSS-MiB), plus, with /usr/bin/time, rows per
+# CPU-second of each process (less sensitive to other load than the wall-clock rates).
 #
 # MEMORY=1 mode: builds ./cmd/starmock and runs `starmock simulate` on a generated
 # scenario of MEMORY_STARS (default 1e8) primaries (an invented big cluster, 5 bands,
@@ -91,7 +92,7 @@ go test -c -o "$bin" ./simulate/
 run() { # run BENCH: one benchmark in its own process; prints its output and peak RSS
 	local out=$work/$1.out
 	if [ -x /usr/bin/time ]; then
-		BENCH_STARS=$BENCH_STARS /usr/bin/time -f '%M' -o "$work/$1.rss" \
+		BENCH_STARS=$BENCH_STARS /usr/bin/time -f '%M %U %S' -o "$work/$1.rss" \
 			"$bin" -test.run '^$' -test.bench "^$1\$" -test.count "$COUNT" -test.benchmem >"$out"
 	else
 		BENCH_STARS=$BENCH_STARS "$bin" -test.run '^$' -test.bench "^$1\$" -test.count "$COUNT" -test.benchmem >"$out"
@@ -109,6 +110,18 @@ run BenchmarkEndToEndParquet
 run BenchmarkIOFloorSameSchema
 e2e=$(metric stars/s "$work/BenchmarkEndToEndParquet.out")
 floor=$(metric rows/s "$work/BenchmarkIOFloorSameSchema.out")
-echo "end-to-end:  $e2e stars/s   peak RSS $(cat "$work/BenchmarkEndToEndParquet.rss") KiB"
-echo "I/O floor:   $floor rows/s   peak RSS $(cat "$work/BenchmarkIOFloorSameSchema.rss") KiB"
+# report NAME UNIT MEDIAN: the median rate, the process's peak RSS and, with /usr/bin/time,
+# rows per CPU-second of the whole process (user + system, all runs, setup included; less
+# sensitive than wall-clock rates to other load on the machine)
+report() {
+	read -r rss user sys <"$work/$1.rss" || true
+	printf '%-12s %s %s/s   peak RSS %s KiB' "$2" "$4" "$3" "$rss"
+	if [ -n "${user:-}" ]; then
+		awk -v n="$BENCH_STARS" -v c="$COUNT" -v u="$user" -v s="$sys" -v unit="$3" \
+			'BEGIN {printf "   CPU %.1f s user + %.1f s sys = %.0f %s per CPU-second", u, s, n * c / (u + s), unit}'
+	fi
+	echo
+}
+report BenchmarkEndToEndParquet end-to-end: stars "$e2e"
+report BenchmarkIOFloorSameSchema "I/O floor:" rows "$floor"
 awk -v a="$e2e" -v b="$floor" 'BEGIN {printf "ratio end-to-end / floor: %.3f (floor is %.1fx faster)\n", a / b, b / a}'
