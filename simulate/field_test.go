@@ -430,8 +430,9 @@ func skyCounts(t *testing.T, limit string, nside int64, pixels []int64, mags []f
 // so the full sky would take ~25 min at V = 5 and hours at V = 8. The default version
 // therefore estimates the whole-sky counts at V < 4 and V < 5 from 3 of the 192 nside-4
 // HEALPix pixels (RING 10, 74, 140 at b ≈ +54°, +10°, −30°: 1/64 of the sky).
-// STARMOCK_LONG=1 estimates V < 4, 5, 6 from 12 pixels (every 16th from 8: 1/16 of the
-// sky, limit V = 6) and V < 7, 8 from the same 3 pixels as the default (limit V = 8).
+// STARMOCK_LONG=1 counts V < 4, 5, 6 on the whole sky (limit V = 6; ~30 min on a loaded
+// 2-CPU machine; 1/16 of the sky took 7 min) and estimates V < 7, 8 from 12 pixels (every
+// 16th from 8: 1/16 of the sky, limit V = 8).
 func TestFieldStarCountsWholeSky(t *testing.T) {
 	ref := refValues(t)
 	type job struct {
@@ -445,7 +446,7 @@ func TestFieldStarCountsWholeSky(t *testing.T) {
 		for p := int64(8); p < 192; p += 16 {
 			every16 = append(every16, p)
 		}
-		jobs = []job{{"6", []float64{4, 5, 6}, every16}, {"8", []float64{7, 8}, []int64{10, 74, 140}}}
+		jobs = []job{{"6", []float64{4, 5, 6}, nil}, {"8", []float64{7, 8}, every16}}
 	}
 	const npix = 192 // nside 4
 	for _, j := range jobs {
@@ -477,6 +478,9 @@ func TestFieldStarCountsWholeSky(t *testing.T) {
 			if got == 0 {
 				t.Errorf("V < %g: no model star (reference %.0f)", m, want)
 				continue
+			}
+			if math.Abs(math.Log(ratio)) > math.Log(1.5) {
+				t.Logf("V < %g: NOTE the point estimate %.3f is outside the factor-1.5 bar; the check below allows the sampling error (%.0f %%)", m, ratio, 100*sigma/got)
 			}
 			if lim := math.Log(1.5) + 3*sigma/got; math.Abs(math.Log(ratio)) > lim {
 				t.Errorf("V < %g: model/reference = %.3f is outside the factor-1.5 bar (allowed |ln ratio| < %.3f with the model's sampling error): the model's bright-star counts disagree with Hipparcos",
