@@ -6,6 +6,7 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
+	"runtime/debug"
 	"sort"
 	"strings"
 	"time"
@@ -158,6 +159,7 @@ func Run(ctx context.Context, s *synth.Scenario, opts Options) (*Report, error) 
 		}
 		writers = append(writers, w)
 	}
+	setMemoryLimit(cols, plan.ChunkSize, workers)
 	var total int64
 	for _, c := range chunks {
 		total += int64(c.N)
@@ -240,6 +242,26 @@ func Run(ctx context.Context, s *synth.Scenario, opts Options) (*Report, error) 
 	}
 	rep.Elapsed = time.Since(start)
 	return rep, nil
+}
+
+// setMemoryLimit sets the Go runtime's soft memory limit, unless the user set GOMEMLIMIT,
+// to three times the bytes of the batches in flight plus 160 MiB for the writers, and at
+// least 400 MiB. The live heap of a run is those batches plus the encoders; the limit
+// makes the collector run before the default GOGC=100 slack doubles them, so resident
+// memory stays bounded by workers × chunk size as the design asks.
+func setMemoryLimit(cols []output.Column, chunk, workers int) {
+	if os.Getenv("GOMEMLIMIT") != "" {
+		return
+	}
+	perRow := output.RowBytes(cols) + int64(len(cols)) // values plus validity
+	for _, c := range cols {
+		if c.Kind == output.String {
+			perRow += 16 // string headers
+		}
+	}
+	live := perRow * int64(chunk) * int64(synth.BatchesInFlight(workers))
+	limit := max(3*live+160<<20, 400<<20)
+	debug.SetMemoryLimit(limit)
 }
 
 // synthBandCol returns the position of the j-th per-band column of band k.

@@ -341,12 +341,13 @@ type Result struct {
 
 // Run simulates the given chunks of the plan with the given number of workers and hands
 // each finished batch to sink in chunk order, one at a time, from a single goroutine.
-// Memory is bounded: at most 4×workers+2 batches of ChunkSize rows exist at once. The
-// batch passed to sink is reused after sink returns. Results never depend on workers.
+// Memory is bounded: at most BatchesInFlight(workers) batches of ChunkSize rows exist at
+// once. The batch passed to sink is reused after sink returns. Results never depend on
+// workers.
 //
-// Up to 4×workers chunks may run ahead of the one the writer waits for, so that workers
+// Up to 2×workers chunks may run ahead of the one the writer waits for, so that workers
 // keep busy when chunk costs vary (near and far shells of a Galactic field differ by
-// orders of magnitude). At most 4×workers+1 chunks are outstanding (dispatched and not yet
+// orders of magnitude). At most 2×workers+1 chunks are outstanding (dispatched and not yet
 // handed to sink), each holding at most one batch, so a worker never waits for a batch
 // that only a later chunk could free.
 func (p *Plan) Run(ctx context.Context, chunks []ChunkRef, workers int, sink func(Result) error) error {
@@ -354,8 +355,8 @@ func (p *Plan) Run(ctx context.Context, chunks []ChunkRef, workers int, sink fun
 		workers = 1
 	}
 	cols := p.Columns()
-	ahead := 4 * workers
-	nBuf := ahead + 2
+	ahead := 2 * workers
+	nBuf := BatchesInFlight(workers)
 	free := make(chan *output.Batch, nBuf)
 	for i := 0; i < nBuf; i++ {
 		free <- output.NewBatch(cols, p.ChunkSize)
@@ -428,6 +429,10 @@ func (p *Plan) Run(ctx context.Context, chunks []ChunkRef, workers int, sink fun
 	wg.Wait()
 	return firstErr
 }
+
+// BatchesInFlight is the number of chunk batches Run keeps for a worker count: the
+// look-ahead of 2×workers chunks plus the one being written plus one spare.
+func BatchesInFlight(workers int) int { return 2*max(workers, 1) + 2 }
 
 type result struct {
 	Result
