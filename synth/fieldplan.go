@@ -237,14 +237,19 @@ func (s *Scenario) newFieldPlan(ctx context.Context, p *Plan, cp *ComponentPlan,
 	}
 	f.ext = &extinctionPlan{law: law, table: table, spread: spread, ebvPerAV: 1 / law.RV(), field: sh.dust}
 
-	// Initial mass per present mass, and mean initial mass per system (primary plus
-	// companion), by Monte Carlo over 20000 primaries of the component (plan stream).
+	// Initial mass per present mass over 20000 primaries of the component: masses at the
+	// stratified IMF quantiles (i + 1/2)/n and ages at the history's quantiles of the
+	// golden-ratio sequence frac(i φ) (a quasi-random design with far less scatter than
+	// random draws, so the normalisation barely depends on the seed); [Fe/H] from the
+	// plan stream.
 	r := newStream(p.Seed, cp.Index, 1, streamPlan)
 	var sumInit, sumPresent float64
 	const nMC = 20000
+	const phiFrac = 0.6180339887498949 // golden ratio − 1
 	for i := 0; i < nMC; i++ {
-		m := cp.IMF.Rand(r)
-		a := cp.Ages.Age(r)
+		m := cp.IMF.Quantile((float64(i) + 0.5) / nMC)
+		_, pa := math.Modf(float64(i) * phiFrac)
+		a := cp.Ages.Quantile(pa)
 		key, fq := quantiseFeH(cp.FeH.FeH(r))
 		mod, err := p.model(key, fq)
 		if err != nil {
