@@ -245,7 +245,7 @@ func Run(ctx context.Context, s *synth.Scenario, opts Options) (*Report, error) 
 }
 
 // setMemoryLimit sets the Go runtime's soft memory limit, unless the user set GOMEMLIMIT,
-// to three times the bytes of the batches in flight plus 160 MiB for the writers, and at
+// to twice the bytes of the batches in flight plus 160 MiB for the writers, and at
 // least 350 MiB. The live heap of a run is those batches plus the encoders; the limit
 // makes the collector run before the default GOGC=100 slack doubles them, so resident
 // memory stays bounded by workers × chunk size as the design asks.
@@ -260,7 +260,7 @@ func setMemoryLimit(cols []output.Column, chunk, workers int) {
 		}
 	}
 	live := perRow * int64(chunk) * int64(synth.BatchesInFlight(workers))
-	limit := max(3*live+160<<20, 350<<20)
+	limit := max(2*live+160<<20, 350<<20)
 	debug.SetMemoryLimit(limit)
 }
 
