@@ -1,8 +1,6 @@
 package main
 
 import (
-	"bytes"
-	"context"
 	"flag"
 	"math"
 	"os"
@@ -19,33 +17,6 @@ import (
 // files after a deliberate change of output.
 var updateBands = flag.Bool("update-bands", false, "rewrite the bands command golden files")
 
-func runBandsArgs(t *testing.T, args ...string) (stdout, stderr string, code int) {
-	t.Helper()
-	var out, errb bytes.Buffer
-	code = run(context.Background(), args, &out, &errb)
-	return out.String(), errb.String(), code
-}
-
-func checkBandsGolden(t *testing.T, name, got string) {
-	t.Helper()
-	path := filepath.Join("testdata", "bands", name+".golden")
-	if *updateBands {
-		if err := os.MkdirAll(filepath.Dir(path), 0o755); err != nil {
-			t.Fatal(err)
-		}
-		if err := os.WriteFile(path, []byte(got), 0o644); err != nil {
-			t.Fatal(err)
-		}
-	}
-	want, err := os.ReadFile(path)
-	if err != nil {
-		t.Fatalf("golden file: %v (run with -update-bands)", err)
-	}
-	if w := strings.ReplaceAll(string(want), "\r\n", "\n"); got != w {
-		t.Errorf("output differs from %s\n--- got ---\n%s\n--- want ---\n%s", path, got, w)
-	}
-}
-
 // TestBandsCommandGolden: regression tests of the output format (labelled as
 // such). The pivot wavelengths are checked against the passband kit README in
 // the phot tests and the coefficients against outside sources in the dust
@@ -57,11 +28,11 @@ func TestBandsCommandGolden(t *testing.T) {
 		{"av2_f99_rv5_hot", "bands --av 2 --rv 5 --law f99 --teff 20000"},
 	} {
 		t.Run(c.name, func(t *testing.T) {
-			stdout, stderr, code := runBandsArgs(t, strings.Fields(c.args)...)
+			stdout, stderr, code := runArgs(t, strings.Fields(c.args)...)
 			if code != 0 {
 				t.Fatalf("exit %d, stderr %q", code, stderr)
 			}
-			checkBandsGolden(t, c.name, stdout)
+			assertGolden(t, "bands", c.name, stdout, *updateBands, "update-bands")
 		})
 	}
 }
@@ -69,7 +40,7 @@ func TestBandsCommandGolden(t *testing.T) {
 // The printed A_X/A_V are dust.BandRatio of the band curve and a blackbody,
 // and the printed pivots are phot's, to the printed digits.
 func TestBandsCommandNumbers(t *testing.T) {
-	stdout, _, code := runBandsArgs(t, "bands", "--av", "0.5", "--rv", "3.1", "--teff", "4000")
+	stdout, _, code := runArgs(t, "bands", "--av", "0.5", "--rv", "3.1", "--teff", "4000")
 	if code != 0 {
 		t.Fatal(code)
 	}
@@ -107,7 +78,7 @@ func TestBandsCommandUserPassband(t *testing.T) {
 	dir := t.TempDir()
 	good := filepath.Join(dir, "narrow_656.dat")
 	os.WriteFile(good, []byte("# response_kind: photon\n6500 0\n6550 1\n6600 0\n"), 0o644)
-	stdout, stderr, code := runBandsArgs(t, "bands", "--passband", good, "--av", "1")
+	stdout, stderr, code := runArgs(t, "bands", "--passband", good, "--av", "1")
 	if code != 0 {
 		t.Fatalf("exit %d: %s", code, stderr)
 	}
@@ -131,7 +102,7 @@ func TestBandsCommandErrors(t *testing.T) {
 		{"bands extra", "unknown command"},
 	} {
 		t.Run(c.args, func(t *testing.T) {
-			_, stderr, code := runBandsArgs(t, strings.Fields(c.args)...)
+			_, stderr, code := runArgs(t, strings.Fields(c.args)...)
 			if code != 2 {
 				t.Errorf("exit %d, want 2 (stderr %q)", code, stderr)
 			}

@@ -1,8 +1,6 @@
 package main
 
 import (
-	"bytes"
-	"context"
 	"encoding/json"
 	"flag"
 	"fmt"
@@ -19,34 +17,6 @@ import (
 // Run "go test ./cmd/starmock -run IMF -update-imf" to rewrite the golden
 // files after a deliberate change of output.
 var updateIMF = flag.Bool("update-imf", false, "rewrite the imf command golden files")
-
-// runIMFArgs runs the whole command line through run() into buffers.
-func runIMFArgs(t *testing.T, args ...string) (stdout, stderr string, code int) {
-	t.Helper()
-	var out, errb bytes.Buffer
-	code = run(context.Background(), args, &out, &errb)
-	return out.String(), errb.String(), code
-}
-
-func checkGolden(t *testing.T, name, got string) {
-	t.Helper()
-	path := filepath.Join("testdata", "imf", name+".golden")
-	if *updateIMF {
-		if err := os.MkdirAll(filepath.Dir(path), 0o755); err != nil {
-			t.Fatal(err)
-		}
-		if err := os.WriteFile(path, []byte(got), 0o644); err != nil {
-			t.Fatal(err)
-		}
-	}
-	want, err := os.ReadFile(path)
-	if err != nil {
-		t.Fatalf("golden file: %v (run with -update-imf)", err)
-	}
-	if w := strings.ReplaceAll(string(want), "\r\n", "\n"); got != w {
-		t.Errorf("output differs from %s\n--- got ---\n%s\n--- want ---\n%s", path, got, w)
-	}
-}
 
 // TestIMFCommandGolden runs whole command lines and compares the output with
 // golden files. These are regression tests of the output format (labelled as
@@ -65,11 +35,11 @@ func TestIMFCommandGolden(t *testing.T) {
 		{"chabrier_single_total_seed3", "imf --form chabrier_single --total-msun 10 --seed 3"},
 	} {
 		t.Run(c.name, func(t *testing.T) {
-			stdout, stderr, code := runIMFArgs(t, strings.Fields(c.args)...)
+			stdout, stderr, code := runArgs(t, strings.Fields(c.args)...)
 			if code != 0 {
 				t.Fatalf("exit %d, stderr %q", code, stderr)
 			}
-			checkGolden(t, c.name, stdout)
+			assertGolden(t, "imf", c.name, stdout, *updateIMF, "update-imf")
 		})
 	}
 }
@@ -78,7 +48,7 @@ func TestIMFCommandGolden(t *testing.T) {
 // package's values (which are tested against outside sources there), and
 // that the realised total reported for --total-msun is the sum of the CSV.
 func TestIMFCommandNumbers(t *testing.T) {
-	stdout, _, code := runIMFArgs(t, "imf", "--form", "kroupa", "--min-mass-msun", "0.08", "--bins-msun", "0.08,1,100", "--above-msun", "8", "--format", "json")
+	stdout, _, code := runArgs(t, "imf", "--form", "kroupa", "--min-mass-msun", "0.08", "--bins-msun", "0.08,1,100", "--above-msun", "8", "--format", "json")
 	if code != 0 {
 		t.Fatalf("exit %d", code)
 	}
@@ -101,7 +71,7 @@ func TestIMFCommandNumbers(t *testing.T) {
 		t.Errorf("mean mass %v, reference 0.5739", p.MeanMassMsun)
 	}
 
-	stdout, stderr, code := runIMFArgs(t, "imf", "--form", "salpeter", "--total-msun", "250", "--seed", "11")
+	stdout, stderr, code := runArgs(t, "imf", "--form", "salpeter", "--total-msun", "250", "--seed", "11")
 	if code != 0 {
 		t.Fatalf("exit %d", code)
 	}
@@ -131,7 +101,7 @@ func TestIMFCommandNumbers(t *testing.T) {
 func TestIMFCommandOutFile(t *testing.T) {
 	dir := t.TempDir()
 	path := filepath.Join(dir, "masses.csv")
-	_, _, code := runIMFArgs(t, "imf", "--form", "chabrier_system", "--sample", "1000", "--seed", "5", "--out", path)
+	_, _, code := runArgs(t, "imf", "--form", "chabrier_system", "--sample", "1000", "--seed", "5", "--out", path)
 	if code != 0 {
 		t.Fatalf("exit %d", code)
 	}
@@ -139,14 +109,14 @@ func TestIMFCommandOutFile(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	stdout, _, _ := runIMFArgs(t, "imf", "--form", "chabrier_system", "--sample", "1000", "--seed", "5")
+	stdout, _, _ := runArgs(t, "imf", "--form", "chabrier_system", "--sample", "1000", "--seed", "5")
 	if string(got) != stdout {
 		t.Errorf("file and stdout differ")
 	}
 	if n := strings.Count(stdout, "\n"); n != 1001 {
 		t.Errorf("%d lines, want 1001", n)
 	}
-	other, _, _ := runIMFArgs(t, "imf", "--form", "chabrier_system", "--sample", "1000", "--seed", "6")
+	other, _, _ := runArgs(t, "imf", "--form", "chabrier_system", "--sample", "1000", "--seed", "6")
 	if other == stdout {
 		t.Errorf("different seeds gave the same masses")
 	}
@@ -191,7 +161,7 @@ func TestIMFCommandErrors(t *testing.T) {
 		{"positional_arg", []string{"imf", "kroupa"}, []string{"unknown command"}},
 	} {
 		t.Run(c.name, func(t *testing.T) {
-			stdout, stderr, code := runIMFArgs(t, c.args...)
+			stdout, stderr, code := runArgs(t, c.args...)
 			if code != 2 {
 				t.Errorf("exit %d, want 2 (stderr %q)", code, stderr)
 			}
@@ -209,7 +179,7 @@ func TestIMFCommandErrors(t *testing.T) {
 
 // TestIMFCommandHelp checks that --help lists the forms and worked examples.
 func TestIMFCommandHelp(t *testing.T) {
-	stdout, _, code := runIMFArgs(t, "imf", "--help")
+	stdout, _, code := runArgs(t, "imf", "--help")
 	if code != 0 {
 		t.Fatalf("exit %d", code)
 	}

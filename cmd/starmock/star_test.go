@@ -1,13 +1,9 @@
 package main
 
 import (
-	"bytes"
-	"context"
 	"encoding/json"
 	"flag"
 	"math"
-	"os"
-	"path/filepath"
 	"regexp"
 	"sort"
 	"strconv"
@@ -20,13 +16,6 @@ import (
 // Run "go test ./cmd/starmock -run 'Star|Track' -update-evolve" to rewrite the
 // golden files of the star and track commands after a deliberate change.
 var updateEvolve = flag.Bool("update-evolve", false, "rewrite the star/track command golden files")
-
-func runArgs(t *testing.T, args ...string) (stdout, stderr string, code int) {
-	t.Helper()
-	var out, errb bytes.Buffer
-	code = run(context.Background(), args, &out, &errb)
-	return out.String(), errb.String(), code
-}
 
 // numberRE matches the long floating-point numbers of JSON and CSV output.
 var numberRE = regexp.MustCompile(`-?\d+\.\d{7,}(e[-+]?\d+)?|-?\d\.\d+e[-+]\d+`)
@@ -44,26 +33,6 @@ func roundNumbers(s string) string {
 	})
 }
 
-func checkEvolveGolden(t *testing.T, name, got string) {
-	t.Helper()
-	path := filepath.Join("testdata", "evolve", name+".golden")
-	if *updateEvolve {
-		if err := os.MkdirAll(filepath.Dir(path), 0o755); err != nil {
-			t.Fatal(err)
-		}
-		if err := os.WriteFile(path, []byte(got), 0o644); err != nil {
-			t.Fatal(err)
-		}
-	}
-	want, err := os.ReadFile(path)
-	if err != nil {
-		t.Fatalf("golden file: %v (run with -update-evolve)", err)
-	}
-	if w := strings.ReplaceAll(string(want), "\r\n", "\n"); got != w {
-		t.Errorf("output differs from %s\n--- got ---\n%s\n--- want ---\n%s", path, got, w)
-	}
-}
-
 // TestStarCommandGolden is a regression test of the output format (labelled
 // as such): the physics is tested in the evolve package, and
 // TestStarCommandNumbers ties the printed numbers to it.
@@ -79,7 +48,7 @@ func TestStarCommandGolden(t *testing.T) {
 			if code != 0 {
 				t.Fatalf("exit %d, stderr %q", code, stderr)
 			}
-			checkEvolveGolden(t, c.name, roundNumbers(stdout))
+			assertGolden(t, "evolve", c.name, roundNumbers(stdout), *updateEvolve, "update-evolve")
 		})
 	}
 }

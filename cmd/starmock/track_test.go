@@ -19,7 +19,7 @@ func TestTrackCommandGolden(t *testing.T) {
 	if code != 0 {
 		t.Fatalf("exit %d, %s", code, stderr)
 	}
-	checkEvolveGolden(t, "track_3msun_10pts", roundNumbers(stdout))
+	assertGolden(t, "evolve", "track_3msun_10pts", roundNumbers(stdout), *updateEvolve, "update-evolve")
 }
 
 // TestTrackCommandCSV: columns, every stage of a 1 Msun star resolved with
