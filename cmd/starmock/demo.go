@@ -55,9 +55,7 @@ func newDemoCmd(stdout, stderr io.Writer) *cobra.Command {
 				OnBatch: func(b *output.Batch, cols []output.Column) error { return col.Add(b, cols) },
 			}
 			bar := newProgress(stderr, quiet)
-			if bar != nil {
-				opts.Progress = func(done, total int64) { bar.ChangeMax64(total); _ = bar.Set64(done) }
-			}
+			opts.Progress = progressFunc(bar)
 			rep, err := simulate.Run(cmd.Context(), s, opts)
 			if bar != nil {
 				_ = bar.Finish()

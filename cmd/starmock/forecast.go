@@ -2,7 +2,6 @@ package main
 
 import (
 	"encoding/json"
-	"errors"
 	"fmt"
 	"io"
 	"math"
@@ -56,20 +55,14 @@ func newForecastCmd(stdout, stderr io.Writer) *cobra.Command {
 				return usageErrorf("--workers %d is out of range; allowed: 0 or more", o.Workers)
 			}
 			bar := newProgress(stderr, quiet)
-			if bar != nil {
-				o.Progress = func(done, total int64) { bar.ChangeMax64(total); _ = bar.Set64(done) }
-			}
+			o.Progress = progressFunc(bar)
 			fc, err := simulate.RunForecast(cmd.Context(), s, o)
 			if bar != nil {
 				_ = bar.Finish()
 				fmt.Fprintln(stderr)
 			}
 			if err != nil {
-				var se *synth.ScenarioError
-				if errors.As(err, &se) {
-					return asUsage(err)
-				}
-				return err
+				return runError(err)
 			}
 			if asJSON {
 				enc := json.NewEncoder(stdout)

@@ -75,23 +75,14 @@ func newSimulateCmd(stdout, stderr io.Writer) *cobra.Command {
 			}
 			opts := simulate.Options{Workers: o.workers, ShardIndex: si, ShardCount: sn, OutPath: o.out}
 			bar := newProgress(stderr, o.quiet)
-			if bar != nil {
-				opts.Progress = func(done, total int64) {
-					bar.ChangeMax64(total)
-					_ = bar.Set64(done)
-				}
-			}
+			opts.Progress = progressFunc(bar)
 			rep, err := simulate.Run(cmd.Context(), s, opts)
 			if bar != nil {
 				_ = bar.Finish()
 				fmt.Fprintln(stderr)
 			}
 			if err != nil {
-				var se *synth.ScenarioError
-				if errors.As(err, &se) {
-					return asUsage(err)
-				}
-				return err
+				return runError(err)
 			}
 			printReport(stdout, rep)
 			return nil
@@ -104,6 +95,27 @@ func newSimulateCmd(stdout, stderr io.Writer) *cobra.Command {
 	f.StringVar(&o.out, "out", "", "output path without extension (overrides the scenario's output.path)")
 	f.BoolVar(&o.quiet, "quiet", false, "no progress bar")
 	return cmd
+}
+
+// runError marks scenario errors found while resolving a plan (tables, models) as usage
+// errors (exit status 2); other errors pass unchanged.
+func runError(err error) error {
+	var se *synth.ScenarioError
+	if errors.As(err, &se) {
+		return asUsage(err)
+	}
+	return err
+}
+
+// progressFunc adapts a progress bar (nil: none) to the runners' progress callback.
+func progressFunc(bar *progressbar.ProgressBar) func(done, total int64) {
+	if bar == nil {
+		return nil
+	}
+	return func(done, total int64) {
+		bar.ChangeMax64(total)
+		_ = bar.Set64(done)
+	}
 }
 
 // parseShard reads "i/N" with 0 <= i < N.
@@ -159,11 +171,7 @@ func humanBytes(n int64) string {
 func dryRun(cmd *cobra.Command, s *synth.Scenario, o *simulateOptions, w io.Writer) error {
 	est, err := simulate.Estimate(cmd.Context(), s, o.workers)
 	if err != nil {
-		var se *synth.ScenarioError
-		if errors.As(err, &se) {
-			return asUsage(err)
-		}
-		return err
+		return runError(err)
 	}
 	fmt.Fprintf(w, "scenario %s is valid\n", s.File())
 	for _, c := range est.Components {
@@ -175,7 +183,15 @@ func dryRun(cmd *cobra.Command, s *synth.Scenario, o *simulateOptions, w io.Writ
 		fmt.Fprintf(w, "expected output: %s about %s\n", f.Path, humanBytes(f.Bytes))
 	}
 	fmt.Fprintf(w, "expected run time: about %s with %d workers (measured on a %d-star sample: %.0f stars/s)\n",
-		est.Time.Round(time.Second/10), est.Workers, est.SampleStars, est.StarsPerSecond)
+		roundDuration(est.Time), est.Workers, est.SampleStars, est.StarsPerSecond)
 	fmt.Fprintln(w, "nothing was written (dry run)")
 	return nil
+}
+
+// roundDuration rounds a duration for display: to 0.1 s from a second up, to ms below.
+func roundDuration(d time.Duration) time.Duration {
+	if d >= time.Second {
+		return d.Round(time.Second / 10)
+	}
+	return d.Round(time.Millisecond)
 }
