@@ -19,24 +19,9 @@ type coordRow struct {
 // testdata/regen_coords.py).
 func readCoordRows(t *testing.T) []coordRow {
 	t.Helper()
-	f, err := os.Open("testdata/coords_astropy.tsv")
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
 	var rows []coordRow
-	sc := bufio.NewScanner(f)
-	n := 0
-	for sc.Scan() {
-		n++
-		line := sc.Text()
-		if strings.HasPrefix(line, "#") || line == "" {
-			continue
-		}
-		fs := strings.Split(line, "\t")
-		if len(fs) != 7 {
-			t.Fatalf("coords_astropy.tsv line %d: %d fields, want 7", n, len(fs))
-		}
+	for _, rec := range readTSVRows(t, "testdata/coords_astropy.tsv", 7) {
+		fs, n := rec.fields, rec.line
 		r := coordRow{kind: fs[0], line: n}
 		for i := 0; i < 3; i++ {
 			r.in[i] = parseOpt(t, fs[1+i], n)
@@ -169,4 +154,40 @@ func TestCoordSlices(t *testing.T) {
 			t.Errorf("round trip %d off by %g rad", i, s)
 		}
 	}
+}
+
+// tsvRow is one data row of a reference table: its tab-separated fields and line number.
+type tsvRow struct {
+	fields []string
+	line   int
+}
+
+// readTSVRows reads the data rows of a tab-separated reference table (lines starting with
+// '#' and empty lines skipped), failing the test on a row without nFields fields.
+func readTSVRows(t *testing.T, path string, nFields int) []tsvRow {
+	t.Helper()
+	f, err := os.Open(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	var rows []tsvRow
+	sc := bufio.NewScanner(f)
+	n := 0
+	for sc.Scan() {
+		n++
+		line := sc.Text()
+		if strings.HasPrefix(line, "#") || line == "" {
+			continue
+		}
+		fs := strings.Split(line, "\t")
+		if len(fs) != nFields {
+			t.Fatalf("%s line %d: %d fields, want %d", path, n, len(fs), nFields)
+		}
+		rows = append(rows, tsvRow{fs, n})
+	}
+	if err := sc.Err(); err != nil {
+		t.Fatal(err)
+	}
+	return rows
 }

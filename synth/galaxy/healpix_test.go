@@ -1,11 +1,9 @@
 package galaxy
 
 import (
-	"bufio"
 	"errors"
 	"math"
 	"math/rand/v2"
-	"os"
 	"strconv"
 	"strings"
 	"testing"
@@ -22,24 +20,9 @@ type hpRow struct {
 // testdata/regen_healpix.py).
 func readHealpyRows(t *testing.T) []hpRow {
 	t.Helper()
-	fh, err := os.Open("testdata/healpix_healpy.tsv")
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer fh.Close()
 	var rows []hpRow
-	sc := bufio.NewScanner(fh)
-	n := 0
-	for sc.Scan() {
-		n++
-		line := sc.Text()
-		if strings.HasPrefix(line, "#") || line == "" {
-			continue
-		}
-		fs := strings.Split(line, "\t")
-		if len(fs) != 6 {
-			t.Fatalf("healpix_healpy.tsv line %d: %d fields", n, len(fs))
-		}
+	for _, rec := range readTSVRows(t, "testdata/healpix_healpy.tsv", 6) {
+		fs, n := rec.fields, rec.line
 		ns, err := strconv.ParseInt(fs[1], 10, 64)
 		if err != nil {
 			t.Fatalf("line %d: %v", n, err)
