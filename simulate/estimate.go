@@ -52,7 +52,7 @@ func Estimate(ctx context.Context, s *synth.Scenario, workers int) (*EstimateRep
 		e.Components = append(e.Components, ComponentEstimate{c.Name, c.Stars})
 	}
 	cols := plan.Columns()
-	sel, err := selectColumns(cols, s.Output.Columns)
+	sel, err := synth.SelectColumns(cols, s.Output.Columns)
 	if err != nil {
 		return nil, err
 	}

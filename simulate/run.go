@@ -102,7 +102,7 @@ func Run(ctx context.Context, s *synth.Scenario, opts Options) (*Report, error) 
 		workers = opts.Workers
 	}
 	cols := plan.Columns()
-	sel, err := selectColumns(cols, s.Output.Columns)
+	sel, err := synth.SelectColumns(cols, s.Output.Columns)
 	if err != nil {
 		return nil, fmt.Errorf("%s: output.columns: %w", s.File(), err)
 	}
@@ -183,7 +183,7 @@ func Run(ctx context.Context, s *synth.Scenario, opts Options) (*Report, error) 
 			}
 		}
 		for k := 0; k < nb; k++ {
-			dk := b.Cols[synthBandCol(k, 6)].([]bool)
+			dk := b.Cols[synth.BandColumn(k, 6)].([]bool)
 			n := int64(0)
 			for j := 0; j < b.N; j++ {
 				if dk[j] {
@@ -264,9 +264,6 @@ func setMemoryLimit(cols []output.Column, chunk, workers int) {
 	debug.SetMemoryLimit(limit)
 }
 
-// synthBandCol returns the position of the j-th per-band column of band k.
-func synthBandCol(k, j int) int { return synth.BandColumn(k, j) }
-
 // project returns a view of b holding only the selected columns (no copy).
 func project(b *output.Batch, sel []int, dst *output.Batch) *output.Batch {
 	dst.N = b.N
@@ -317,10 +314,6 @@ func keepRows(b *output.Batch, keep []bool, cols []output.Column, dst *output.Ba
 	}
 	dst.N = n
 	return dst
-}
-
-func selectColumns(cols []output.Column, want []string) ([]int, error) {
-	return synth.SelectColumns(cols, want)
 }
 
 // resolvedScenario is what the manifest records as the resolved scenario: the

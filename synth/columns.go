@@ -70,9 +70,9 @@ func catalogueColumns(bands []string) []output.Column {
 	return cols
 }
 
-// selectColumns returns the indices of the requested columns in cols (all when want is
+// SelectColumns returns the indices of the requested columns in cols (all when want is
 // empty), or an error naming an unknown column and listing the allowed names.
-func selectColumns(cols []output.Column, want []string) ([]int, error) {
+func SelectColumns(cols []output.Column, want []string) ([]int, error) {
 	if len(want) == 0 {
 		idx := make([]int, len(cols))
 		for i := range idx {
@@ -97,12 +97,6 @@ func selectColumns(cols []output.Column, want []string) ([]int, error) {
 		idx = append(idx, i)
 	}
 	return idx, nil
-}
-
-// SelectColumns returns the indices of the requested columns in cols (all when want is
-// empty), or an error naming an unknown column and listing the allowed names.
-func SelectColumns(cols []output.Column, want []string) ([]int, error) {
-	return selectColumns(cols, want)
 }
 
 // BandColumn returns the position in Plan.Columns of per-band column j (0 abs_mag, 1

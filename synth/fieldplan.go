@@ -235,7 +235,7 @@ func (s *Scenario) newFieldPlan(ctx context.Context, p *Plan, cp *ComponentPlan,
 	if c.Extinction != nil {
 		spread = c.Extinction.AVSpreadMag
 	}
-	f.ext = &extinctionPlan{law: law, table: table, spread: spread, ebvPerAV: 1 / law.RV(), field: sh.dust}
+	f.ext = &extinctionPlan{table: table, spread: spread, ebvPerAV: 1 / law.RV(), field: sh.dust}
 
 	// Initial mass per present mass over 20000 primaries of the component: masses at the
 	// stratified IMF quantiles (i + 1/2)/n and ages at the history's quantiles of the

@@ -14,7 +14,6 @@ type SurveyPlan struct {
 	Name      string
 	Bands     []phot.Band
 	Photo     *phot.Photometer
-	Observe   *observe.Survey
 	Specs     []observe.BandSpec
 	Detection *observe.DetectionRule
 	// tables caches the fast extinction tables per (law, R_V).
@@ -98,16 +97,12 @@ func (s *Scenario) surveyPlan() (*SurveyPlan, error) {
 	if sp.Detection, err = observe.NewDetectionRule(observe.RuleKind(d.Rule), d.Bands, d.Count, names); err != nil {
 		return nil, s.errf("survey.detection", "%v", err)
 	}
-	if sp.Observe, err = observe.NewSurvey(sp.Specs, sp.Detection); err != nil {
-		return nil, s.errf("survey", "%v", err)
-	}
 	return sp, nil
 }
 
 // extinctionPlan is a component's dust: a law with its fast band table, and the
 // distribution of A_V over its stars.
 type extinctionPlan struct {
-	law      dust.Law
 	table    *dust.BandTable
 	avMag    float64
 	spread   float64
@@ -149,7 +144,7 @@ func (sp *SurveyPlan) extinction(s *Scenario, field string, e *Extinction) (*ext
 	if err != nil {
 		return nil, s.errf(field, "%v", err)
 	}
-	return &extinctionPlan{law: law, table: t, avMag: e.AVMag, spread: e.AVSpreadMag, ebvPerAV: 1 / e.RV}, nil
+	return &extinctionPlan{table: t, avMag: e.AVMag, spread: e.AVSpreadMag, ebvPerAV: 1 / e.RV}, nil
 }
 
 // drawAV returns a star's A_V in mag: the component mean (or, for a Galactic component,
