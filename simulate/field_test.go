@@ -53,6 +53,8 @@ type fieldRow struct {
 	lDeg, bDeg    float64
 	hasCompanion  bool
 	dominantStage string
+	ageYr, feh    float64
+	compMassInit  float64 // 0 if single
 }
 
 // fieldRun runs a scenario without writing a catalogue and calls keep for every row; it
@@ -102,7 +104,8 @@ func scanBatch(b *output.Batch, cols []output.Column, nBands int, keep func(r *f
 		return float64(b.Cols[i].([]float32)[j])
 	}
 	names := []string{"component", "stage", "distance_pc", "mass_initial_msun", "mass_msun",
-		"companion_mass_msun", "is_binary", "detected", "l_deg", "b_deg", "dominant_stage"}
+		"companion_mass_msun", "is_binary", "detected", "l_deg", "b_deg", "dominant_stage",
+		"age_yr", "feh", "companion_mass_initial_msun"}
 	pos := make([]int, len(names))
 	for k, n := range names {
 		i, err := need(n)
@@ -130,6 +133,11 @@ func scanBatch(b *output.Batch, cols []output.Column, nBands int, keep func(r *f
 		r.lDeg = b.Cols[pos[8]].([]float64)[j]
 		r.bDeg = b.Cols[pos[9]].([]float64)[j]
 		r.dominantStage = b.Cols[pos[10]].([]string)[j]
+		r.ageYr, r.feh = f32(pos[11], j), f32(pos[12], j)
+		r.compMassInit = 0
+		if r.hasCompanion {
+			r.compMassInit = f32(pos[13], j)
+		}
 		r.absV = math.NaN()
 		if hasV {
 			r.absV = f32(absV, j)
@@ -221,9 +229,9 @@ func skipScenario(radiusDeg string, skip bool) string {
 //     difference);
 //  2. the observed r magnitudes of the detected stars agree by a two-sample KS test at
 //     false-alarm rate 1e-3 (D_crit from the asymptotic distribution, common practice);
-//  3. soundness of the mass bound on the actual sample: no star detected in the full run
-//     has a primary initial mass below the bound the skipping run uses in its shell (exact:
-//     any such star is a detectable star the bound would have dropped).
+//  3. soundness of the bound on the actual sample: every star detected in the full run is
+//     one the skipping run may draw (exact: any other is a detectable star the bound
+//     would have dropped).
 //
 // Default: a 0.5 deg² cone (radius 0.4°); STARMOCK_LONG=1: 7 deg² (radius 1.5°).
 func TestFieldSkipUndetectableSameSample(t *testing.T) {
@@ -239,11 +247,10 @@ func TestFieldSkipUndetectableSameSample(t *testing.T) {
 		elapsed time.Duration
 	}
 	type detRow struct {
-		comp    string
-		dPc, m1 float64
+		comp                 string
+		dPc, m1, m2, age, fq float64
 	}
 	var fullRows []detRow // detected stars of the run without the bound
-	var bounds map[string][]synth.ShellInfo
 	var samples [2]sample
 	var violations int
 	for k, skip := range []bool{false, true} {
@@ -258,29 +265,28 @@ func TestFieldSkipUndetectableSameSample(t *testing.T) {
 				s.magR = append(s.magR, r.mag[1])
 			}
 			if !skip {
-				fullRows = append(fullRows, detRow{r.component, r.distancePc, r.massInit})
+				fullRows = append(fullRows, detRow{r.component, r.distancePc, r.massInit, r.compMassInit, r.ageYr, r.feh})
 			}
 		})
 		s.rep, s.elapsed = rep, el
 		samples[k] = s
 		if skip {
-			bounds = map[string][]synth.ShellInfo{}
+			// Soundness: every detected star of the full run must be one the bound keeps
+			// (synth.ComponentPlan.MayDetect). Catalogue values are float32 and [Fe/H] is
+			// rounded to 0.01 dex: a star is accepted if the bound keeps it at the inner
+			// shell edge's side of its distance and at either side of its rounded [Fe/H].
+			cps := map[string]*synth.ComponentPlan{}
 			for _, cp := range plan.Components {
-				bounds[cp.Name] = cp.Shells()
+				cps[cp.Name] = cp
 			}
-			// Soundness: detected stars of the full run against the bound of their shell.
-			// float32 distances near a shell edge take the inner shell (smaller bound).
 			for _, row := range fullRows {
-				sh := bounds[row.comp]
-				i := sort.Search(len(sh), func(i int) bool { return sh[i].OuterPc > row.dPc*(1+1e-6) })
-				if i == len(sh) {
-					i = len(sh) - 1
-				}
-				if row.m1 < sh[i].MassBoundMsun*(1-1e-6) {
+				cp := cps[row.comp]
+				d := row.dPc * (1 - 1e-6)
+				if !cp.MayDetect(d, row.m1, row.m2, row.age, row.fq-0.004) && !cp.MayDetect(d, row.m1, row.m2, row.age, row.fq+0.004) {
 					violations++
 					if violations <= 5 {
-						t.Errorf("detected %s star at %.1f pc with initial mass %.4f Msun below the skip bound %.4f Msun of its shell",
-							row.comp, row.dPc, row.m1, sh[i].MassBoundMsun)
+						t.Errorf("detected %s star at %.1f pc (m1 %.4f, m2 %.4f Msun, age %.4g yr, [Fe/H] %.2f) is one the skip bound never draws",
+							row.comp, row.dPc, row.m1, row.m2, row.age, row.fq)
 					}
 				}
 			}
@@ -290,7 +296,7 @@ func TestFieldSkipUndetectableSameSample(t *testing.T) {
 	t.Logf("skip off: %d stars simulated, %d detected, %v; skip on: %d simulated, %d detected, %v",
 		off.rep.Stars, off.n, off.elapsed.Round(time.Millisecond), on.rep.Stars, on.n, on.elapsed.Round(time.Millisecond))
 	if violations > 0 {
-		t.Errorf("%d detected stars lie below the skip bound", violations)
+		t.Errorf("%d detected stars lie outside the skip bound", violations)
 	}
 	if off.n < 1000 {
 		t.Fatalf("only %d detected stars in the full run; the field is too small for the test", off.n)

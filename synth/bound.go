@@ -2,293 +2,288 @@ package synth
 
 import (
 	"math"
+	"runtime"
 	"sort"
+	"sync"
 
 	"github.com/starmock/starmock/evolve"
 	"github.com/starmock/starmock/internal/consts"
 	"github.com/starmock/starmock/synth/observe"
 )
 
-// detectBound decides, for a Galactic component, which systems can never pass the
-// survey's detection rule, whatever their metallicity and extinction, so that they need
-// not be simulated. Extinction is at least zero and is taken as zero.
+// Brightness bounds for magnitude-limit-aware sampling of Galactic components.
 //
-// Single-star thresholds. On a grid of initial masses (320, logarithmic over the IMF's
-// range) and age cells (120, logarithmic up to the oldest allowed age), it evaluates the
-// absolute magnitudes per band, brightest over four metallicities spanning the allowed
-// range, at the age edges and at every phase end (end of the main sequence, base of the
+// Ages are measured in units of each star's main-sequence lifetime, τ = age / t_MS(m,
+// [Fe/H]), so that the phases of neighbouring masses and metallicities line up. On a
+// fixed grid of initial mass (boundMasses nodes, logarithmic over the evolution model's
+// 0.08–150 Msun) and a fixed grid of τ (one main-sequence cell τ < boundTauMS, then
+// boundTauPost cells logarithmic up to τ = 2, then boundTauLate cells up to the oldest
+// age of the lightest star that leaves the main sequence), and for one rounded
+// metallicity at a time, keyNodes holds the absolute magnitudes per survey band of every
+// grid mass at every τ edge, at every phase end (end of the main sequence, base of the
 // giant branch, helium ignition, end of core helium burning, end of the AGB — the
-// brightest moments of each phase — and just after, for the newborn remnant). A cell
-// (mass interval × age interval) takes the brightest of its two masses at its two age
-// edges and at every phase end of either mass inside it (widened by 5 %). While a star is
-// certainly on the main sequence (younger than the shortest main-sequence lifetime of the
-// next grid mass up) the end-of-main-sequence brightness of that mass bounds it instead.
-// A star fails in a band at distance modulus μ if
+// brightest moments of the subgiant, giant, core-helium and AGB phases — and just after,
+// for the newborn remnant), at the quarter points of each of these phases, and at the end
+// of the main sequence (the brightest point of a main-sequence star, or 1.5 × 13.8 Gyr
+// for stars that live longer). A magnitude the photometry cannot give (outside its grid;
+// the catalogue writes null and never detects the star) counts as infinitely faint after
+// the main sequence, where the cell takes the brightest of its other points, and as
+// infinitely bright at the end of the main sequence, where it is the only point.
+//
+// A cell of (metallicity bin × mass interval × τ interval) takes the brightest magnitudes
+// of its corners (two metallicities × two masses × two τ) and of every phase point of its
+// four corner tracks inside the τ interval widened by 1 %; in the main-sequence cell, the
+// end-of-main-sequence brightness of the four corners. Inside a cell, t_MS is interpolated
+// bilinearly in (ln m, [Fe/H]) between the corners' ln t_MS (the interpolation error of
+// this smooth function over one cell, ≲ 1e-4 in τ, is far inside the widening). A star
+// fails in a band at distance modulus μ if
 //
 //	M_brightest + μ − 0.753 > m5 + boundMarginMag
 //
 // where 0.753 = 2.5 log10 2 is the most a companion that is not brighter adds, and the
 // margin covers upward noise fluctuations: 3 mag below the 5σ depth the true S/N is 0.32,
-// and a measured S/N of 5 needs a 4.7σ fluctuation (probability 1.3e-6). For all_of a
-// failure in any listed band suffices; for any_of and at_least every listed band must fail
-// (conservative for at_least).
+// and a measured S/N of 5 needs a 4.7σ fluctuation (probability 1.3e-6). Extinction is at
+// least zero and is taken as zero. For all_of a failure in any listed band suffices; for
+// any_of and at_least every listed band must fail (conservative for at_least).
 //
-// Three tests use them, from cheapest to sharpest:
-//
-//  1. Mass bound per shell: the largest grid mass below which every mass is undetectable at
-//     every allowed age at the shell's inner distance. Companions are never more massive
-//     than their primary, so such systems are never drawn (the shell's expected number is
-//     reduced by the IMF fraction below the bound).
-//  2. Per system, after its masses and age are drawn: both members' thresholds (cell or
-//     main sequence) at the shell's inner distance; the system is dropped if neither
-//     member can be seen.
-//  3. Per system, after evolution: the total bolometric luminosity of both members with
-//     the largest bolometric correction of each band anywhere in the photometer's grid,
-//     M_X ≥ M_bol − max BC_X.
-//
-// Phase ends are interpolated between neighbouring grid masses by the widening, which is
-// the one approximation; the test of issue 6 compares the detected samples with and without
-// the bound.
-type detectBound struct {
-	masses []float64
-	// tMS[i] is the shortest main-sequence lifetime (yr) of masses[i] over the
-	// metallicity grid; muMS[i] the distance modulus beyond which masses[i] cannot be
-	// detected anywhere on its main sequence.
-	tMS  []float64
-	muMS []float64
-	// ageEdges are the age cells (yr); cell[i*nAge+j] the distance modulus beyond which a
-	// star of mass in [masses[i], masses[i+1]] and age in cell j is undetectable.
-	ageEdges []float64
-	cell     []float64
-	// muLimit[i] is the distance modulus beyond which every mass up to masses[i] is
-	// undetectable at every allowed age.
-	muLimit []float64
-	// For the luminosity test: per band the largest bolometric correction anywhere in
-	// the photometer's grid (M_X ≥ M_bol − maxBC), the band limits and the rule.
-	maxBC      []float64
-	limits     []float64
-	use        []int
-	combineMax bool
+// The approximation is the interpolation between grid corners: brightness is taken to
+// vary monotonically between neighbouring masses, metallicities and the sampled phase
+// points, which the margin covers; the test of issue 6 compares the detected samples with
+// and without the bound, and checks that every star detected without it is one the bound
+// keeps.
 
-	lo float64
-}
+const (
+	boundMasses   = 320
+	boundTauMS    = 0.999 // main-sequence cell: τ below this is certainly on the main sequence
+	boundTauPost  = 120
+	boundTauLate  = 50
+	boundTauSplit = 2.0
+	boundFeHStep  = 0.1 // width of the metallicity bins of the bound (dex)
+)
 
-// boundMarginMag is the noise margin of the bound (see detectBound).
+// boundMarginMag is the noise margin of the bound (see above).
 const boundMarginMag = 3.0
 
 // binaryBoostMag is 2.5 log10 2: an equal-mass unresolved pair's brightening.
 var binaryBoostMag = 2.5 * math.Log10(2)
 
-func newDetectBound(p *Plan, cp *ComponentPlan) (*detectBound, error) {
-	lo, hi := cp.IMF.Bounds()
-	aLo, aHi := cp.Ages.Range()
-	fLo, fHi := cp.FeH.Range()
-	const nMass = 320
-	const nAge = 120
-	const nFeH = 4
-	sp := p.Survey
-	rule := sp.Detection
-	ruleIdx := map[string]bool{}
-	for _, b := range rule.Bands() {
-		ruleIdx[b] = true
+// boundMassGrid (Msun) and boundTauGrid (edges of the cells after the main sequence, the
+// first at boundTauMS, the last +Inf) are the fixed grids of the bound.
+var boundMassGrid, boundTauGrid = func() ([]float64, []float64) {
+	m := make([]float64, boundMasses)
+	for i := range m {
+		m[i] = minEvolveMass * math.Pow(maxEvolveMass/minEvolveMass, float64(i)/float64(boundMasses-1))
 	}
-	var use []int
-	for k, b := range sp.Bands {
-		if ruleIdx[b.Name] {
-			use = append(use, k)
+	m[boundMasses-1] = maxEvolveMass
+	// The shortest main-sequence lifetime is above 2.5 Myr (150 Msun, package evolve), so
+	// τ = 1e4 covers every age up to 13.8 Gyr.
+	const tauMax = 1e4
+	t := []float64{boundTauMS}
+	for j := 1; j <= boundTauPost; j++ {
+		t = append(t, boundTauMS*math.Pow(boundTauSplit/boundTauMS, float64(j)/boundTauPost))
+	}
+	for j := 1; j <= boundTauLate; j++ {
+		t = append(t, boundTauSplit*math.Pow(tauMax/boundTauSplit, float64(j)/boundTauLate))
+	}
+	t[len(t)-1] = math.Inf(1)
+	return m, t
+}()
+
+// phasePoint is the magnitude per band of a grid track at one τ.
+type phasePoint struct {
+	tau float64
+	mag []float64
+}
+
+// keyNodes are the brightness nodes of one rounded metallicity (see above). Magnitudes
+// are +Inf for a star without light; nodes that were not evaluated (ages far beyond
+// 13.8 Gyr) are NaN and count as infinitely bright if a cell ever needs them.
+type keyNodes struct {
+	fq     float64   // [Fe/H] (dex)
+	lnTMS  []float64 // ln of the main-sequence lifetime (yr) per grid mass
+	msBest []float64 // [mass*nb+k]: brightest on the main sequence; −Inf: cannot tell
+	node   []float64 // [(mass*len(boundTauGrid)+j)*nb+k] at τ edge j
+	peaks  [][]phasePoint
+}
+
+// boundNodes returns the nodes of the given metallicity keys, building the missing ones
+// in parallel once per plan.
+func (p *Plan) boundNodes(keys []int) (map[int]*keyNodes, error) {
+	p.boundMu.Lock()
+	defer p.boundMu.Unlock()
+	if p.bounds == nil {
+		p.bounds = map[int]*keyNodes{}
+	}
+	var todo []int
+	seen := map[int]bool{}
+	for _, k := range keys {
+		if _, ok := p.bounds[k]; !ok && !seen[k] {
+			todo = append(todo, k)
+			seen[k] = true
 		}
 	}
-	combineMax := rule.Kind() == observe.RuleAllOf
+	sort.Ints(todo)
+	built := make([]*keyNodes, len(todo))
+	errs := make([]error, len(todo))
+	var wg sync.WaitGroup
+	sem := make(chan struct{}, max(1, min(p.Workers(), runtime.NumCPU())))
+	for n, k := range todo {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			sem <- struct{}{}
+			defer func() { <-sem }()
+			built[n], errs[n] = p.buildKeyNodes(k)
+		}()
+	}
+	wg.Wait()
+	for n, k := range todo {
+		if errs[n] != nil {
+			return nil, errs[n]
+		}
+		p.bounds[k] = built[n]
+	}
+	out := make(map[int]*keyNodes, len(keys))
+	for _, k := range keys {
+		out[k] = p.bounds[k]
+	}
+	return out, nil
+}
+
+func (p *Plan) buildKeyNodes(key int) (*keyNodes, error) {
+	fq := float64(key) * fehStep
+	mod, err := p.model(key, fq)
+	if err != nil {
+		return nil, err
+	}
+	sp := p.Survey
 	nb := len(sp.Bands)
-	db := &detectBound{masses: make([]float64, nMass), lo: lo,
-		tMS: make([]float64, nMass), muMS: make([]float64, nMass)}
-	db.maxBC, db.use, db.combineMax = maxBolometricCorrections(sp), use, combineMax
-	for _, spec := range sp.Specs {
-		db.limits = append(db.limits, spec.Limit5SigmaMag)
-	}
-	// Age cells: logarithmic from 1 Myr (or the youngest age) to the oldest age.
-	a0 := math.Max(aLo, 1e6)
-	if a0 >= aHi {
-		a0 = aHi / 2
-	}
-	db.ageEdges = make([]float64, nAge+1)
-	for j := range db.ageEdges {
-		db.ageEdges[j] = a0 * math.Pow(aHi/a0, float64(j)/float64(nAge))
-	}
-	db.ageEdges[0] = 0
-	db.ageEdges[nAge] = aHi * (1 + 1e-12)
-	fehs := make([]float64, nFeH)
-	for jf := range fehs {
-		fehs[jf] = fLo + (fHi-fLo)*float64(jf)/float64(nFeH-1)
-	}
+	nT := len(boundTauGrid)
+	kn := &keyNodes{fq: fq, lnTMS: make([]float64, boundMasses), msBest: make([]float64, boundMasses*nb),
+		node: make([]float64, boundMasses*nT*nb), peaks: make([][]phasePoint, boundMasses)}
 	abs := make([]float64, nb)
-	// node[i][j][k]: brightest M_k of mass i over metallicities at age edge j; peaks[i]
-	// the brightest M_k at each phase end (the brightest moments of the subgiant, giant,
-	// core-helium and AGB phases, and the newborn remnant) with its age.
-	node := make([][]float64, nMass)
-	type peak struct {
-		age float64
-		mag []float64
-	}
-	peaks := make([][]peak, nMass)
-	brightest := func(dst []float64, st evolve.Star, fq float64) {
+	// mags fills dst with the absolute magnitudes of st; a magnitude the photometry
+	// cannot give (outside its grid: the catalogue writes null, which is never detected)
+	// is +Inf after the main sequence and ifNaN on it.
+	mags := func(dst []float64, st evolve.Star, ifNaN float64) {
+		for k := range dst {
+			dst[k] = math.Inf(1)
+		}
 		if !hasLight(st) {
 			return
 		}
 		sp.Photo.AbsMags(st.TeffK, st.LoggCgs, fq, st.LuminosityLsun, abs)
-		for k := range abs {
-			if !math.IsNaN(abs[k]) && abs[k] < dst[k] {
-				dst[k] = abs[k]
+		for k, v := range abs {
+			dst[k] = v
+			if math.IsNaN(v) {
+				dst[k] = ifNaN
 			}
 		}
 	}
-	inf := func() []float64 {
-		v := make([]float64, nb)
-		for k := range v {
-			v[k] = math.Inf(1)
-		}
-		return v
+	for i := range kn.node {
+		kn.node[i] = math.NaN()
 	}
-	bestMS := make([]float64, nb)
-	for i := 0; i < nMass; i++ {
-		m := lo * math.Pow(hi/lo, float64(i)/float64(nMass-1))
-		db.masses[i] = m
-		db.tMS[i] = math.Inf(1)
-		copy(bestMS, inf())
-		node[i] = make([]float64, (nAge+1)*nb)
-		for k := range node[i] {
-			node[i][k] = math.Inf(1)
+	for i, m := range boundMassGrid {
+		ts, err := mod.Timescales(m)
+		if err != nil {
+			return nil, err
 		}
-		for _, feh := range fehs {
-			key, fq := quantiseFeH(feh)
-			mod, err := p.model(key, fq)
-			if err != nil {
-				return nil, err
-			}
-			ts, err := mod.Timescales(m)
-			if err != nil {
-				return nil, err
-			}
-			db.tMS[i] = math.Min(db.tMS[i], ts.MSLifetimeYr)
-			st, err := mod.Evolve(m, ts.MSLifetimeYr*(1-1e-9))
-			if err != nil {
-				return nil, err
-			}
-			if st.Stage == evolve.MainSequence {
-				brightest(bestMS, st, fq)
-			} else {
-				for k := range bestMS { // cannot tell: never skip this mass on the main sequence
-					bestMS[k] = math.Inf(-1)
-				}
-			}
-			for j, a := range db.ageEdges {
-				st, err := mod.Evolve(m, math.Min(a, aHi))
-				if err != nil {
-					return nil, err
-				}
-				brightest(node[i][j*nb:(j+1)*nb], st, fq)
-			}
-			for _, t := range []float64{ts.MSLifetimeYr, ts.BGBYr, ts.HeIgnitionYr, ts.EndCoreHeYr, ts.EndAGBYr} {
-				for _, a := range []float64{t * (1 - 1e-7), t * (1 + 1e-7)} {
-					if !(a > 0) || a > aHi || math.IsInf(a, 0) || math.IsNaN(a) {
-						continue
-					}
-					st, err := mod.Evolve(m, a)
-					if err != nil {
-						return nil, err
-					}
-					pk := peak{age: a, mag: inf()}
-					brightest(pk.mag, st, fq)
-					peaks[i] = append(peaks[i], pk)
-				}
+		tms := ts.MSLifetimeYr
+		kn.lnTMS[i] = math.Log(tms)
+		ms := kn.msBest[i*nb : (i+1)*nb]
+		// The main sequence brightens with age: its brightest allowed point is its end, or
+		// the oldest age any corner of a cell may reach.
+		st, err := mod.Evolve(m, math.Min(tms*(1-1e-9), 1.5*MaxAgeYr))
+		if err != nil {
+			return nil, err
+		}
+		if st.Stage == evolve.MainSequence {
+			mags(ms, st, math.Inf(-1)) // the star may be inside the grid earlier on
+		} else { // cannot tell: never bound this mass by its main sequence
+			for k := range ms {
+				ms[k] = math.Inf(-1)
 			}
 		}
-		db.muMS[i] = threshold(sp, use, bestMS, combineMax)
-	}
-	// Cell thresholds: mass interval [m_i, m_{i+1}] × age cell [a_j, a_{j+1}], the
-	// brightest over both masses at both age edges and at every phase peak inside the
-	// cell, of either mass (phase times move smoothly between neighbouring masses).
-	db.cell = make([]float64, (nMass-1)*nAge)
-	best := make([]float64, nb)
-	for i := 0; i+1 < nMass; i++ {
-		for j := 0; j < nAge; j++ {
-			copy(best, inf())
-			for _, ii := range []int{i, i + 1} {
-				for _, jj := range []int{j, j + 1} {
-					for k := 0; k < nb; k++ {
-						best[k] = math.Min(best[k], node[ii][jj*nb+k])
-					}
-				}
-				for _, pk := range peaks[ii] {
-					if pk.age >= db.ageEdges[j]/1.05 && pk.age <= db.ageEdges[j+1]*1.05 {
-						for k := 0; k < nb; k++ {
-							best[k] = math.Min(best[k], pk.mag[k])
-						}
-					}
-				}
-			}
-			db.cell[i*nAge+j] = threshold(sp, use, best, combineMax)
+		if tms*boundTauMS > 1.5*MaxAgeYr {
+			continue // on the main sequence at every allowed age, even for the cell's other corners
 		}
-	}
-	// Mass bound: a mass is undetectable at any allowed age if every cell next to it
-	// (inside the allowed ages) is; a running maximum over masses, so that all masses up
-	// to masses[i] are undetectable beyond muLimit[i]. Companions are never more massive
-	// than their primary, so a system whose primary lies below the bound is undetectable
-	// too.
-	db.muLimit = make([]float64, nMass)
-	running := math.Inf(-1)
-	for i := 0; i < nMass; i++ {
-		thr := math.Inf(-1)
-		for j := 0; j < nAge; j++ {
-			if db.ageEdges[j+1] < aLo {
+		dark := ts.Remnant == evolve.NeutronStar || ts.Remnant == evolve.BlackHole || ts.Remnant == evolve.NoRemnant
+		for j, tau := range boundTauGrid {
+			a := tau * tms
+			if j > 0 && boundTauGrid[j-1]*tms > 1.5*MaxAgeYr {
+				break // no cell reaching this node has an allowed age
+			}
+			v := kn.node[(i*nT+j)*nb : (i*nT+j+1)*nb]
+			if dark && a > ts.EndAGBYr*(1+1e-6) { // a neutron star or black hole: no light from then on
+				for k := range v {
+					v[k] = math.Inf(1)
+				}
 				continue
 			}
-			if i < nMass-1 {
-				thr = math.Max(thr, db.cell[i*nAge+j])
+			st, err := mod.Evolve(m, math.Min(a, evolve.MaxAgeYr))
+			if err != nil {
+				return nil, err
 			}
-			if i > 0 {
-				thr = math.Max(thr, db.cell[(i-1)*nAge+j])
+			mags(v, st, math.Inf(1))
+		}
+		ends := []float64{ts.MSLifetimeYr, ts.BGBYr, ts.HeIgnitionYr, ts.EndCoreHeYr, ts.EndAGBYr}
+		var ages []float64
+		for n, t := range ends {
+			ages = append(ages, t*(1-1e-7), t*(1+1e-7))
+			if n+1 < len(ends) && ends[n+1] > t {
+				for _, f := range []float64{0.25, 0.5, 0.75} {
+					ages = append(ages, t+f*(ends[n+1]-t))
+				}
 			}
 		}
-		running = math.Max(running, thr)
-		db.muLimit[i] = running
+		for _, a := range ages {
+			if !(a > 0) || a > 1.5*MaxAgeYr || math.IsInf(a, 0) {
+				continue
+			}
+			st, err := mod.Evolve(m, a)
+			if err != nil {
+				return nil, err
+			}
+			pp := phasePoint{tau: a / tms, mag: make([]float64, nb)}
+			mags(pp.mag, st, math.Inf(1))
+			kn.peaks[i] = append(kn.peaks[i], pp)
+		}
 	}
-	return db, nil
+	return kn, nil
 }
 
-// starThreshold returns the distance modulus beyond which a star of initial mass m
-// (Msun) and age ageYr can never be detected: the main-sequence bound while the star is
-// certainly on the main sequence, else the (mass, age) cell bound. Masses below the grid
-// use the lowest grid mass (a brighter star); masses above it cannot be bounded (+Inf).
-func (d *detectBound) starThreshold(m, ageYr float64) float64 {
-	n := len(d.masses)
-	i := sort.SearchFloat64s(d.masses, m) // masses[i-1] < m <= masses[i]
-	if i >= n {
-		return math.Inf(1)
+// cellBrightest fills best with the brightest magnitudes of the cell after the main
+// sequence (metallicity keys kns, grid masses i and i+1, τ edges j and j+1; see above).
+func cellBrightest(best []float64, kns [2]*keyNodes, i, j, nb int) {
+	nT := len(boundTauGrid)
+	for k := range best {
+		best[k] = math.Inf(1)
 	}
-	if ageYr < d.tMS[i] {
-		return d.muMS[i]
+	lo, hi := boundTauGrid[j]/1.002, boundTauGrid[j+1]*1.002
+	for _, kn := range kns {
+		for _, ii := range [2]int{i, i + 1} {
+			for _, jj := range [2]int{j, j + 1} {
+				if jj >= nT {
+					continue
+				}
+				v := kn.node[(ii*nT+jj)*nb : (ii*nT+jj+1)*nb]
+				for k := range best {
+					if math.IsNaN(v[k]) {
+						best[k] = math.Inf(-1)
+					} else {
+						best[k] = math.Min(best[k], v[k])
+					}
+				}
+			}
+			for _, pk := range kn.peaks[ii] {
+				if pk.tau >= lo && pk.tau <= hi {
+					for k := range best {
+						best[k] = math.Min(best[k], pk.mag[k])
+					}
+				}
+			}
+		}
 	}
-	ic := max(i-1, 0)
-	j := sort.SearchFloat64s(d.ageEdges, ageYr) - 1
-	if j < 0 {
-		j = 0
-	}
-	if j >= len(d.ageEdges)-1 {
-		return math.Inf(1)
-	}
-	return d.cell[ic*(len(d.ageEdges)-1)+j]
-}
-
-// skipSystem reports whether a primary (m1, age) with an optional companion of initial
-// mass m2 (0 for none) at distance modulus mu can never be detected: both members are
-// individually below the limit (their thresholds include the pair boost).
-func (d *detectBound) skipSystem(m1, m2, ageYr, mu float64) bool {
-	thr := d.starThreshold(m1, ageYr)
-	if m2 > 0 {
-		thr = math.Max(thr, d.starThreshold(m2, ageYr))
-	}
-	return mu > thr
 }
 
 // threshold returns the distance modulus beyond which a star whose brightest absolute
@@ -313,6 +308,21 @@ func threshold(sp *SurveyPlan, use []int, best []float64, combineMax bool) float
 		}
 	}
 	return thr
+}
+
+// ruleBands returns the indices of the survey bands the detection rule reads and whether
+// a failure in one of them suffices (all_of).
+func ruleBands(sp *SurveyPlan) (use []int, combineMax bool) {
+	in := map[string]bool{}
+	for _, b := range sp.Detection.Bands() {
+		in[b] = true
+	}
+	for k, b := range sp.Bands {
+		if in[b.Name] {
+			use = append(use, k)
+		}
+	}
+	return use, sp.Detection.Kind() == observe.RuleAllOf
 }
 
 // maxBolometricCorrections scans the photometer's grid (400 steps in log Teff × 60 in
@@ -346,10 +356,28 @@ func maxBolometricCorrections(sp *SurveyPlan) []float64 {
 	return out
 }
 
-// skipLuminosity reports whether a system of total bolometric luminosity lumLsun can
-// never pass the rule at distance modulus mu: per band M_X ≥ M_bol − maxBC_X, and the
-// band fails if M_X + μ > m5 + margin (no pair boost: lumLsun already holds both stars).
-func (d *detectBound) skipLuminosity(lumLsun, mu float64) bool {
+// lumBound is the test applied after evolution: a system of total bolometric luminosity
+// L cannot pass the rule at distance modulus μ if per band M_X ≥ M_bol − maxBC_X gives
+// M_X + μ > m5 + margin (no pair boost: L already holds both stars).
+type lumBound struct {
+	maxBC      []float64
+	limits     []float64
+	use        []int
+	combineMax bool
+}
+
+func newLumBound(sp *SurveyPlan) *lumBound {
+	lb := &lumBound{maxBC: maxBolometricCorrections(sp)}
+	lb.use, lb.combineMax = ruleBands(sp)
+	for _, spec := range sp.Specs {
+		lb.limits = append(lb.limits, spec.Limit5SigmaMag)
+	}
+	return lb
+}
+
+// skip reports whether a system of total bolometric luminosity lumLsun can never pass the
+// rule at distance modulus mu.
+func (d *lumBound) skip(lumLsun, mu float64) bool {
 	if !(lumLsun > 0) {
 		return true // no light at all
 	}
@@ -364,20 +392,4 @@ func (d *detectBound) skipLuminosity(lumLsun, mu float64) bool {
 		return fails > 0
 	}
 	return fails == len(d.use)
-}
-
-// massBelowUndetectable returns the initial mass (Msun) below which no system at
-// distance ≥ dPc can be detected: the largest grid mass m_i such that μ(d) exceeds
-// muLimit[i]; the IMF's lower limit if there is none.
-func (d *detectBound) massBelowUndetectable(dPc float64) float64 {
-	mu := consts.DistanceModulus(dPc)
-	m := d.lo
-	for i := range d.masses {
-		if mu > d.muLimit[i] {
-			m = d.masses[i]
-		} else {
-			break
-		}
-	}
-	return m
 }

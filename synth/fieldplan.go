@@ -59,28 +59,34 @@ func galacticDefaults(c *Component) {
 	}
 }
 
-// fieldPos locates a field star: the shell it was drawn in.
-type fieldPos struct{ shell int }
+// fieldPos locates a field star: the shell it was drawn in, and whether it was drawn in
+// the companion class of the detectability bound (see liveBound).
+type fieldPos struct {
+	shell     int
+	companion bool
+}
 
 // fieldPlan is a Galactic component resolved along the field's sight lines: the
-// expected and drawn number of systems per distance shell, and the mass below which a
-// system can never be detected in each shell.
+// expected and drawn number of systems per distance shell, with the detectability bound
+// when the scenario skips undetectable systems.
 type fieldPlan struct {
 	name   string
 	model  *galaxy.Model
 	area   galaxy.Area
 	shells []galaxy.Shell
-	// Per shell: expected systems before and after the detectability bound, the bound
-	// (initial mass of the primary, Msun) and its CDF value, and the drawn count.
+	// Per shell: expected systems before and after the detectability bound, the lowest
+	// initial mass that may be detected, and the drawn counts (class 1 first, then
+	// class 2 of the bound; all in class 1 without it).
 	expectedAll []float64
 	expected    []float64
 	massBound   []float64
-	pBound      []float64
 	counts      []int64
+	counts1     []int64
 	cum         []int64   // cum[i] = systems in shells before i
 	muInner     []float64 // distance modulus of each shell's inner edge
-	bound       *detectBound
 	imfLo       float64
+	live        *liveBound
+	lum         *lumBound
 	ext         *extinctionPlan
 	dust        *fieldDust
 	// Factors used to turn the density law into systems.
@@ -92,9 +98,11 @@ type fieldPlan struct {
 type ShellInfo struct {
 	InnerPc, OuterPc float64
 	// ExpectedSystems is the expected number of systems in the shell; ExpectedSimulated
-	// the part that can pass the detection rule (the rest is skipped); Drawn the Poisson
-	// number simulated; MassBoundMsun the initial mass below which primaries were not
-	// drawn (they cannot be detected at any age).
+	// the number drawn on average with the detectability bound (systems with a member
+	// that may be detected, plus the companion-class draws later found to belong to the
+	// primary class; equal to ExpectedSystems without the bound); Drawn the Poisson
+	// number drawn; MassBoundMsun the lowest initial mass of a system member that may be
+	// detected in the shell (no primary below it was drawn).
 	ExpectedSystems, ExpectedSimulated float64
 	Drawn                              int64
 	MassBoundMsun                      float64
@@ -113,24 +121,39 @@ func (cp *ComponentPlan) Shells() []ShellInfo {
 	return out
 }
 
-// locate returns the shell of the component's star with index starIdx.
-func (f *fieldPlan) locate(starIdx int64) fieldPos {
-	i := sort.Search(len(f.counts), func(i int) bool { return f.cum[i+1] > starIdx })
-	return fieldPos{shell: i}
+// MayDetect reports whether the detectability bound keeps a system (initial masses m1
+// and m2, 0 for none, in Msun; age in yr; raw [Fe/H] in dex) at distance dPc: false means
+// the bound would never draw it. Without the bound, or outside the field's shells, it is
+// true.
+func (cp *ComponentPlan) MayDetect(dPc, m1, m2, ageYr, fehDex float64) bool {
+	f := cp.field
+	if f == nil || f.live == nil {
+		return true
+	}
+	s := sort.Search(len(f.shells), func(i int) bool { return f.shells[i].OuterPc > dPc })
+	if s == len(f.shells) {
+		return true
+	}
+	lb := f.live
+	b := sort.SearchFloat64s(lb.edges, fehDex) - 1
+	b = max(0, min(b, len(lb.edges)-2))
+	_, fq := quantiseFeH(fehDex)
+	if int(lb.level(b, m1, fq, ageYr)) > s {
+		return true
+	}
+	return m2 >= minEvolveMass && int(lb.level(b, m2, fq, ageYr)) > s
 }
 
-// skip reports whether a drawn system (primary mass m1, companion mass m2 or 0, age) can
-// never be detected: see detectBound. Skipped stars are not evolved and get no catalogue
-// row; they still were drawn, so the catalogue is the full population minus systems that
-// cannot be detected.
-func (f *fieldPlan) skip(fp fieldPos, m1, m2, ageYr float64) bool {
-	return f.bound != nil && f.bound.skipSystem(m1, m2, ageYr, f.muInner[fp.shell])
+// locate returns the position of the component's star with index starIdx.
+func (f *fieldPlan) locate(starIdx int64) fieldPos {
+	i := sort.Search(len(f.counts), func(i int) bool { return f.cum[i+1] > starIdx })
+	return fieldPos{shell: i, companion: starIdx-f.cum[i] >= f.counts1[i]}
 }
 
 // skipFaint reports whether an evolved system (primary s1, companion s2 with their light
-// flags) can never be detected in its shell: see detectBound.skipLuminosity.
+// flags) can never be detected in its shell: see lumBound.
 func (f *fieldPlan) skipFaint(fp fieldPos, s1, s2 evolve.Star, light1, light2 bool) bool {
-	if f.bound == nil {
+	if f.lum == nil {
 		return false
 	}
 	l := 0.0
@@ -140,15 +163,23 @@ func (f *fieldPlan) skipFaint(fp fieldPos, s1, s2 evolve.Star, light1, light2 bo
 	if light2 {
 		l += s2.LuminosityLsun
 	}
-	return f.bound.skipLuminosity(l, f.muInner[fp.shell])
+	return f.lum.skip(l, f.muInner[fp.shell])
 }
 
-// draw draws a field primary's initial mass (Msun) from the IMF truncated below the
-// shell's bound, by quantile m = F⁻¹(p_bound + u (1 − p_bound)) (one draw of rm), and its
-// age from the history (package synth's AgeSampler, draws of rs).
-func (f *fieldPlan) draw(cp *ComponentPlan, fp fieldPos, rm, rs *rand.Rand) (massMsun, ageYr float64) {
-	p0 := f.pBound[fp.shell]
-	return cp.IMF.Quantile(p0 + rm.Float64()*(1-p0)), cp.Ages.Age(rs)
+// draw draws a field system: with the detectability bound from the live cells of its
+// shell (see liveBound.draw; keep is false for a thinned companion-class draw), else
+// like any system (mass from rm; age, [Fe/H] and companion from rs).
+func (f *fieldPlan) draw(cp *ComponentPlan, fp fieldPos, rm, rs *rand.Rand) (m1, m2, ageYr, feh float64, keep bool, err error) {
+	if f.live != nil {
+		return f.live.draw(cp, fp.shell, fp.companion, rm, rs)
+	}
+	m1 = cp.IMF.Rand(rm)
+	ageYr = cp.Ages.Age(rs)
+	feh = cp.FeH.FeH(rs)
+	if cp.binaries != nil {
+		m2 = cp.binaries.draw(m1, rs)
+	}
+	return m1, m2, ageYr, feh, true, nil
 }
 
 func (s *Scenario) buildArea() (galaxy.Area, error) {
@@ -275,36 +306,46 @@ func (s *Scenario) newFieldPlan(ctx context.Context, p *Plan, cp *ComponentPlan,
 	f.expectedAll = make([]float64, n)
 	f.expected = make([]float64, n)
 	f.massBound = make([]float64, n)
-	f.pBound = make([]float64, n)
 	f.counts = make([]int64, n)
+	f.counts1 = make([]int64, n)
 	f.cum = make([]int64, n+1)
-	var bound *detectBound
-	if *s.Field.SkipUndetectable {
-		if bound, err = newDetectBound(p, cp); err != nil {
-			return nil, s.errf(path, "%v", err)
-		}
-	}
-	f.bound = bound
 	f.muInner = make([]float64, n)
-	pr := newStream(p.Seed, cp.Index, 0, streamPlan)
-	for i, sm := range masses {
-		f.expectedAll[i] = sm.InitialMassMsun * c.DensityScale / f.meanSystemMsun
-		f.massBound[i] = f.imfLo
+	for i := range f.shells {
 		f.muInner[i] = math.Inf(-1)
 		if f.shells[i].InnerPc > 0 {
 			f.muInner[i] = consts.DistanceModulus(f.shells[i].InnerPc)
 		}
-		if bound != nil {
-			f.massBound[i] = bound.massBelowUndetectable(f.shells[i].InnerPc)
+	}
+	if *s.Field.SkipUndetectable {
+		if f.live, err = newLiveBound(p, cp, f.muInner); err != nil {
+			return nil, s.errf(path, "%v", err)
 		}
-		f.pBound[i] = math.Min(1, cp.IMF.CDF(f.massBound[i]))
-		f.expected[i] = f.expectedAll[i] * (1 - f.pBound[i])
-		k, err := galaxy.PoissonCount(f.expected[i], pr)
+		f.lum = newLumBound(p.Survey)
+	}
+	pr := newStream(p.Seed, cp.Index, 0, streamPlan)
+	for i, sm := range masses {
+		f.expectedAll[i] = sm.InitialMassMsun * c.DensityScale / f.meanSystemMsun
+		e1, e2 := f.expectedAll[i], 0.0
+		f.massBound[i] = f.imfLo
+		if f.live != nil {
+			e1 = f.expectedAll[i] * f.live.prim.weight(i)
+			e2 = f.expectedAll[i] * f.live.comp.weight(i)
+			f.massBound[i] = math.Max(f.imfLo, f.live.massLow[i])
+		}
+		f.expected[i] = e1 + e2
+		k1, err := galaxy.PoissonCount(e1, pr)
 		if err != nil {
 			return nil, s.errf("field", "%v", err)
 		}
-		f.counts[i] = k
-		f.cum[i+1] = f.cum[i] + k
+		k2 := int64(0)
+		if f.live != nil {
+			if k2, err = galaxy.PoissonCount(e2, pr); err != nil {
+				return nil, s.errf("field", "%v", err)
+			}
+		}
+		f.counts1[i] = k1
+		f.counts[i] = k1 + k2
+		f.cum[i+1] = f.cum[i] + k1 + k2
 		if err := ctx.Err(); err != nil {
 			return nil, err
 		}

@@ -16,12 +16,23 @@ const (
 type FeHSampler interface {
 	FeH(r *rand.Rand) float64
 	Range() (lo, hi float64)
+	// CDF returns the fraction of stars with [Fe/H] below fehDex.
+	CDF(fehDex float64) float64
+	// Quantile returns the [Fe/H] (dex) below which a fraction p ∈ [0, 1] of stars lie.
+	Quantile(p float64) float64
 }
 
 type fixedFeH float64
 
 func (f fixedFeH) FeH(*rand.Rand) float64    { return float64(f) }
 func (f fixedFeH) Range() (float64, float64) { return float64(f), float64(f) }
+func (f fixedFeH) Quantile(float64) float64  { return float64(f) }
+func (f fixedFeH) CDF(x float64) float64 {
+	if x < float64(f) {
+		return 0
+	}
+	return 1
+}
 
 // gaussFeH is a normal distribution truncated to the evolution model's range by redrawing:
 // the tails outside [MinFeH, MaxFeH] cannot be evolved, and dropping them is documented in
@@ -40,12 +51,30 @@ func (g gaussFeH) Range() (float64, float64) {
 	return math.Max(MinFeH, g.mean-6*g.sigma), math.Min(MaxFeH, g.mean+6*g.sigma)
 }
 
+// CDF of the normal truncated to [MinFeH, MaxFeH]: (Φ(z) − Φ(z_min)) / (Φ(z_max) − Φ(z_min)).
+func (g gaussFeH) CDF(x float64) float64 {
+	x = math.Max(MinFeH, math.Min(MaxFeH, x))
+	lo, hi := phi((MinFeH-g.mean)/g.sigma), phi((MaxFeH-g.mean)/g.sigma)
+	return (phi((x-g.mean)/g.sigma) - lo) / (hi - lo)
+}
+
+// Quantile inverts CDF: x = μ + σ Φ⁻¹(Φ(z_min) + p (Φ(z_max) − Φ(z_min))), with
+// Φ⁻¹(y) = −√2 erfc⁻¹(2y).
+func (g gaussFeH) Quantile(p float64) float64 {
+	lo, hi := phi((MinFeH-g.mean)/g.sigma), phi((MaxFeH-g.mean)/g.sigma)
+	y := lo + p*(hi-lo)
+	x := g.mean - g.sigma*math.Sqrt2*math.Erfcinv(2*y)
+	return math.Max(MinFeH, math.Min(MaxFeH, x))
+}
+
 type tableFeH struct{ pl *piecewiseLinear }
 
 func (t tableFeH) FeH(r *rand.Rand) float64 { return t.pl.Sample(r) }
 func (t tableFeH) Range() (float64, float64) {
 	return t.pl.x[0], t.pl.x[len(t.pl.x)-1]
 }
+func (t tableFeH) CDF(x float64) float64      { return t.pl.CDF(x) }
+func (t tableFeH) Quantile(p float64) float64 { return t.pl.Quantile(p) }
 
 func (s *Scenario) fehSampler(p string, m Metallicity) (FeHSampler, error) {
 	switch m.Kind {

@@ -32,6 +32,9 @@ type Plan struct {
 	modelMu sync.Mutex
 	models  map[int]*evolve.Model // evolution models by rounded [Fe/H] (see quantiseFeH)
 
+	boundMu sync.Mutex
+	bounds  map[int]*keyNodes // brightness nodes of the detectability bound by rounded [Fe/H]
+
 	samplerMu sync.Mutex
 	samplers  map[[2]int]*galaxy.ShellSampler // (component, shell)
 }

@@ -136,22 +136,25 @@ func (w *worker) fill(ch ChunkRef, b *output.Batch) error {
 		starIdx := ch.First + int64(si)
 
 		// Mass, age, metallicity, companion.
-		var m1, a float64
+		var m1, m2, a, rawFeH float64
 		var fp fieldPos
 		if cp.field != nil {
 			fp = cp.field.locate(starIdx)
-			m1, a = cp.field.draw(cp, fp, rm, rs)
+			var keep bool
+			var err error
+			if m1, m2, a, rawFeH, keep, err = cp.field.draw(cp, fp, rm, rs); err != nil {
+				return fmt.Errorf("component %s: %w", cp.Name, err)
+			}
+			if !keep {
+				continue
+			}
 		} else {
 			m1 = cp.IMF.Rand(rm)
 			a = cp.Ages.Age(rs)
-		}
-		rawFeH := cp.FeH.FeH(rs)
-		m2 := 0.0
-		if cp.binaries != nil {
-			m2 = cp.binaries.draw(m1, rs)
-		}
-		if cp.field != nil && cp.field.skip(fp, m1, m2, a) {
-			continue
+			rawFeH = cp.FeH.FeH(rs)
+			if cp.binaries != nil {
+				m2 = cp.binaries.draw(m1, rs)
+			}
 		}
 		key, fq := quantiseFeH(rawFeH)
 		model, err := w.model(key, fq)
