@@ -60,41 +60,84 @@ type liveBound struct {
 	// massLow[s] is the lowest initial mass (Msun) of any cell live in shell s.
 	massLow []float64
 	bin     *binaryModel
+	// Sub-divisions of the proposal envelopes (see liveSub*): per bin the [Fe/H] edges
+	// and distribution-function values of its sub-bins, per mass interval the masses and
+	// mass-function values of its sub-intervals and the companion-class tables.
+	subFeH, subFeHCDF [][]float64
+	subM, subMCDF     [][]float64
+	compTab           [][]companionTable
 }
 
-// liveCell is a live segment: bin, mass interval, τ interval, and envelope weight.
+// Narrow segments after the main sequence are proposed from sub-cells (liveSubFeH
+// metallicity sub-bins × liveSubMass mass sub-intervals) whose t_MS range, and so whose
+// envelope, is smaller: the acceptance of the thinning rises accordingly. Index 0 of
+// each sub-division is the whole bin or interval.
+const (
+	liveSubFeH  = 2
+	liveSubMass = 4
+)
+
+// liveCell is a proposal entry: a live segment of a (sub-)cell.
 type liveCell struct {
-	level  int32
-	bin    int32
-	mass   int32
-	t0, t1 float64 // τ interval
-	w      float64
+	level    int32
+	bin      int32
+	mass     int32
+	fs, ms   int32   // sub-bin and mass sub-interval (0: whole; k ≥ 1: sub-division k−1)
+	t0, t1   float64 // τ interval
+	tLo, tHi float64 // t_MS range of the sub-cell's corners (yr)
+	env      float64 // G(τ1 tHi) − G(τ0 tLo)
 }
 
-// liveList holds segments sorted by decreasing level, their cumulative weights and, per
-// shell, the number of live segments.
+// companionTable holds what the companion class needs for one companion mass interval:
+// the breakpoints of the primaries' range, their mass-function values, the rejection
+// envelope and H.
+type companionTable struct {
+	x0, x1 float64
+	pts    []float64
+	p0, p1 float64
+	env    float64
+	h      float64
+}
+
+// liveList holds proposal entries sorted by decreasing level, their cumulative envelope
+// weights and, per shell, the number of live entries.
 type liveList struct {
 	cells []liveCell
+	w     []float64
 	cum   []float64
 	nLive []int
 }
 
-func (l *liveList) finish(nShells int) {
-	sort.SliceStable(l.cells, func(a, b int) bool { return l.cells[a].level > l.cells[b].level })
-	l.cum = make([]float64, len(l.cells)+1)
-	for k, c := range l.cells {
-		l.cum[k+1] = l.cum[k] + c.w
+func (l *liveList) add(c liveCell, w float64) {
+	if w > 0 {
+		l.cells = append(l.cells, c)
+		l.w = append(l.w, w)
 	}
+}
+
+func (l *liveList) finish(nShells int) {
+	idx := make([]int, len(l.cells))
+	for k := range idx {
+		idx[k] = k
+	}
+	sort.SliceStable(idx, func(a, b int) bool { return l.cells[idx[a]].level > l.cells[idx[b]].level })
+	cells := make([]liveCell, len(idx))
+	l.cum = make([]float64, len(idx)+1)
+	for k, n := range idx {
+		cells[k] = l.cells[n]
+		l.cum[k+1] = l.cum[k] + l.w[n]
+	}
+	l.cells, l.w = cells, nil
 	l.nLive = make([]int, nShells)
 	for s := range l.nLive {
 		l.nLive[s] = sort.Search(len(l.cells), func(k int) bool { return int(l.cells[k].level) <= s })
 	}
 }
 
-// weight returns the summed envelope weight of the segments live in shell s.
+// weight returns the summed envelope weight of the entries live in shell s.
 func (l *liveList) weight(s int) float64 { return l.cum[l.nLive[s]] }
 
-// pick chooses a live segment of shell s with probability ∝ weight (one uniform).
+// pick chooses a live entry of shell s with probability ∝ weight (one uniform).
 func (l *liveList) pick(s int, u float64) *liveCell {
 	n := l.nLive[s]
 	x := u * l.cum[n]
@@ -139,15 +182,38 @@ func (lb *liveBound) tMS(b, i int, m, fq float64) float64 {
 	return math.Exp(lo + v*(hi-lo))
 }
 
-// tRange returns the smallest and largest corner t_MS (yr) of cell (b, i).
-func (lb *liveBound) tRange(b, i int) (lo, hi float64) {
+// fehSpan returns the raw [Fe/H] edges of sub-bin fs of bin b (fs < 0: the whole bin)
+// and the distribution function at them.
+func (lb *liveBound) fehSpan(b, fs int) (e0, e1, c0, c1 float64) {
+	if fs < 0 {
+		return lb.edges[b], lb.edges[b+1], lb.subFeHCDF[b][0], lb.subFeHCDF[b][liveSubFeH]
+	}
+	return lb.subFeH[b][fs], lb.subFeH[b][fs+1], lb.subFeHCDF[b][fs], lb.subFeHCDF[b][fs+1]
+}
+
+// massSpan returns the masses (Msun) of sub-interval ms of mass interval i (ms < 0: the
+// whole interval) and the mass function's distribution function at them.
+func (lb *liveBound) massSpan(i, ms int) (x0, x1, f0, f1 float64) {
+	if ms < 0 {
+		return lb.subM[i][0], lb.subM[i][liveSubMass], lb.subMCDF[i][0], lb.subMCDF[i][liveSubMass]
+	}
+	return lb.subM[i][ms], lb.subM[i][ms+1], lb.subMCDF[i][ms], lb.subMCDF[i][ms+1]
+}
+
+// tRange returns the smallest and largest t_MS (yr) of sub-cell (b, fs, i, ms): at its
+// corners, where the bilinear interpolation takes its extremes.
+func (lb *liveBound) tRange(b, fs, i, ms int) (lo, hi float64) {
 	lo, hi = math.Inf(1), math.Inf(-1)
-	for _, kn := range lb.kns[b] {
-		for _, ii := range [2]int{i, i + 1} {
-			lo, hi = math.Min(lo, kn.lnTMS[ii]), math.Max(hi, kn.lnTMS[ii])
+	e0, e1, _, _ := lb.fehSpan(b, fs)
+	x0, x1, _, _ := lb.massSpan(i, ms)
+	for _, f := range [2]float64{e0, e1} {
+		_, fq := quantiseFeH(f)
+		for _, m := range [2]float64{x0, x1} {
+			t := lb.tMS(b, i, m, fq)
+			lo, hi = math.Min(lo, t), math.Max(hi, t)
 		}
 	}
-	return math.Exp(lo), math.Exp(hi)
+	return lo, hi
 }
 
 // ageProb returns G(t1) − G(t0) for the component's age distribution (t0 ≥ 0; t1 may be
@@ -173,29 +239,52 @@ func newLiveBound(p *Plan, cp *ComponentPlan, muInner []float64) (*liveBound, er
 	if err != nil {
 		return nil, err
 	}
+	fixed := lb.edges[0] == lb.edges[1]
 	for b := 0; b < nbin; b++ {
 		lb.kns = append(lb.kns, [2]*keyNodes{nodes[keys[b]], nodes[keys[b+1]]})
-		if lb.edges[0] == lb.edges[1] {
-			lb.pBin = append(lb.pBin, 1)
+		e := make([]float64, liveSubFeH+1)
+		c := make([]float64, liveSubFeH+1)
+		for k := range e {
+			e[k] = lb.edges[b] + (lb.edges[b+1]-lb.edges[b])*float64(k)/liveSubFeH
+			c[k] = cp.FeH.CDF(e[k])
+		}
+		e[liveSubFeH] = lb.edges[b+1]
+		if fixed {
+			c = []float64{0, 0.5, 1}[:liveSubFeH+1]
+			c[liveSubFeH] = 1
 		} else {
-			lb.pBin = append(lb.pBin, math.Max(0, cp.FeH.CDF(lb.edges[b+1])-cp.FeH.CDF(lb.edges[b])))
+			c[liveSubFeH] = cp.FeH.CDF(lb.edges[b+1])
+		}
+		lb.subFeH, lb.subFeHCDF = append(lb.subFeH, e), append(lb.subFeHCDF, c)
+		lb.pBin = append(lb.pBin, math.Max(0, c[liveSubFeH]-c[0]))
+	}
+	nm := boundMasses - 1
+	for i := 0; i < nm; i++ {
+		x := make([]float64, liveSubMass+1)
+		f := make([]float64, liveSubMass+1)
+		for k := range x {
+			x[k] = boundMassGrid[i] * math.Pow(boundMassGrid[i+1]/boundMassGrid[i], float64(k)/liveSubMass)
+		}
+		x[0], x[liveSubMass] = boundMassGrid[i], boundMassGrid[i+1]
+		for k := range x {
+			f[k] = cp.IMF.CDF(x[k])
+		}
+		lb.subM, lb.subMCDF = append(lb.subM, x), append(lb.subMCDF, f)
+		if lb.bin != nil {
+			tab := make([]companionTable, liveSubMass+1)
+			for ms := -1; ms < liveSubMass; ms++ {
+				x0, x1, _, _ := lb.massSpan(i, ms)
+				tab[ms+1] = lb.companionTable(cp, x0, x1)
+			}
+			lb.compTab = append(lb.compTab, tab)
 		}
 	}
 	sp := p.Survey
 	nb := len(sp.Bands)
 	use, combineMax := ruleBands(sp)
-	nm := boundMasses - 1
 	ns := len(muInner)
 	levelOf := func(thr float64) int32 {
 		return int32(sort.Search(ns, func(s int) bool { return muInner[s] > thr }))
-	}
-	// Companion weights H per mass interval.
-	var h []float64
-	if lb.bin != nil {
-		h = make([]float64, nm)
-		for i := range h {
-			h[i] = lb.companionProb(cp, boundMassGrid[i], boundMassGrid[i+1])
-		}
 	}
 	lb.segStart = make([]int32, nbin*nm+1)
 	best := make([]float64, nb)
@@ -217,7 +306,7 @@ func newLiveBound(p *Plan, cp *ComponentPlan, muInner []float64) (*liveBound, er
 				}
 				segs = append(segs, seg{t0, t1, level})
 			}
-			tLo, tHi := lb.tRange(b, i)
+			tLo, tHi := lb.tRange(b, -1, i, -1)
 			// Main-sequence cell: the brightest end of the main sequence of the corners.
 			for k := range best {
 				best[k] = math.Inf(1)
@@ -240,24 +329,36 @@ func newLiveBound(p *Plan, cp *ComponentPlan, muInner []float64) (*liveBound, er
 				}
 				add(boundTauGrid[j], boundTauGrid[j+1], lvl)
 			}
-			pm := cp.IMF.NumberFraction(boundMassGrid[i], boundMassGrid[i+1])
-			lowMass := pm == 0
 			for _, sg := range segs {
 				lb.segT1 = append(lb.segT1, sg.t1)
 				lb.segLevel = append(lb.segLevel, sg.level)
 				if sg.level == 0 {
 					continue
 				}
-				env := ageProb(cp, sg.t0*tLo, sg.t1*tHi)
-				c := liveCell{level: sg.level, bin: int32(b), mass: int32(i), t0: sg.t0, t1: sg.t1}
-				if w := lb.pBin[b] * pm * env; w > 0 && !lowMass {
-					c.w = w
-					lb.prim.cells = append(lb.prim.cells, c)
+				// Narrow segments after the main sequence: proposals from sub-cells.
+				fss, mss := []int{-1}, []int{-1}
+				if sg.t0 >= boundTauMS && sg.t1 <= boundTauSplit {
+					fss, mss = []int{0, 1}, []int{0, 1, 2, 3}
+					if fixed {
+						fss = []int{-1}
+					}
 				}
-				if h != nil {
-					if w := lb.pBin[b] * h[i] * env; w > 0 {
-						c.w = w
-						lb.comp.cells = append(lb.comp.cells, c)
+				for _, fs := range fss {
+					_, _, c0, c1 := lb.fehSpan(b, fs)
+					for _, ms := range mss {
+						lo, hi := lb.tRange(b, fs, i, ms)
+						env := ageProb(cp, sg.t0*lo, sg.t1*hi)
+						c := liveCell{level: sg.level, bin: int32(b), mass: int32(i), fs: int32(fs), ms: int32(ms),
+							t0: sg.t0, t1: sg.t1, tLo: lo, tHi: hi, env: env}
+						_, _, f0, f1 := lb.massSpan(i, ms)
+						pf := c1 - c0
+						if fixed {
+							pf = 1
+						}
+						lb.prim.add(c, pf*(f1-f0)*env)
+						if lb.bin != nil {
+							lb.comp.add(c, pf*lb.compTab[i][ms+1].h*env)
+						}
 					}
 				}
 			}
@@ -366,54 +467,53 @@ func (lb *liveBound) companionProb(cp *ComponentPlan, x0, x1 float64) float64 {
 	return sum
 }
 
+// companionTable prepares the companion class for the interval [x0, x1]: H and the
+// rejection envelope (the largest binary fraction times the largest ratio probability,
+// found at the breakpoints between which the latter is monotone, and just below them,
+// where the binary fraction steps).
+func (lb *liveBound) companionTable(cp *ComponentPlan, x0, x1 float64) companionTable {
+	ct := companionTable{x0: x0, x1: x1, pts: lb.companionRange(cp, x0, x1)}
+	if len(ct.pts) < 2 {
+		return ct
+	}
+	var fMax, wMax float64
+	for _, m := range ct.pts {
+		for _, mm := range [2]float64{m, m * (1 - 1e-12)} {
+			fMax = math.Max(fMax, lb.bin.fractionAt(mm))
+			wMax = math.Max(wMax, lb.qProb(x0/mm, x1/mm))
+		}
+	}
+	ct.env = fMax * wMax * (1 + 1e-9)
+	ct.p0, ct.p1 = cp.IMF.CDF(ct.pts[0]), cp.IMF.CDF(ct.pts[len(ct.pts)-1])
+	ct.h = lb.companionProb(cp, x0, x1)
+	return ct
+}
+
 // errRejection reports a rejection loop that did not end (it cannot happen for a cell of
 // positive weight; the limit guards against a defect).
 var errRejection = errors.New("synth: companion-class rejection sampling did not converge")
 
-// drawPrimaryGivenCompanion draws (m1, m2) with m2 in [x0, x1]: m1 from the mass function
-// on the primaries that can have such a companion, accepted with probability
-// f(m1) P(q m1 ∈ [x0, x1]) / envelope (the envelope takes the largest binary fraction and
-// the largest ratio probability, found at the breakpoints between which it is monotone),
-// then q from the ratio law restricted to [x0/m1, x1/m1].
-func (lb *liveBound) drawPrimaryGivenCompanion(cp *ComponentPlan, x0, x1 float64, r *rand.Rand) (m1, m2 float64, err error) {
-	pts := lb.companionRange(cp, x0, x1)
-	if len(pts) < 2 {
+// drawPrimaryGivenCompanion draws (m1, m2) with m2 in the table's interval [x0, x1]: m1
+// from the mass function on the primaries that can have such a companion, accepted with
+// probability f(m1) P(q m1 ∈ [x0, x1]) / envelope, then q from the ratio law restricted
+// to [x0/m1, x1/m1].
+func (lb *liveBound) drawPrimaryGivenCompanion(cp *ComponentPlan, ct *companionTable, r *rand.Rand) (m1, m2 float64, err error) {
+	if ct.env <= 0 {
 		return 0, 0, errRejection
 	}
-	var fMax, wMax float64
-	for _, m := range pts {
-		fMax = math.Max(fMax, lb.bin.fractionAt(m))
-		wMax = math.Max(wMax, lb.qProb(x0/m, x1/m))
-		// Just below each point too: the binary fraction steps up at its breakpoints.
-		mm := m * (1 - 1e-12)
-		fMax = math.Max(fMax, lb.bin.fractionAt(mm))
-		wMax = math.Max(wMax, lb.qProb(x0/mm, x1/mm))
-	}
-	env := fMax * wMax * (1 + 1e-9)
-	p0, p1 := cp.IMF.CDF(pts[0]), cp.IMF.CDF(pts[len(pts)-1])
 	for it := 0; it < 1_000_000; it++ {
-		m := cp.IMF.Quantile(p0 + r.Float64()*(p1-p0))
-		if r.Float64()*env < lb.bin.fractionAt(m)*lb.qProb(x0/m, x1/m) {
-			q := lb.qDraw(x0/m, x1/m, r.Float64())
+		m := cp.IMF.Quantile(ct.p0 + r.Float64()*(ct.p1-ct.p0))
+		if r.Float64()*ct.env < lb.bin.fractionAt(m)*lb.qProb(ct.x0/m, ct.x1/m) {
+			q := lb.qDraw(ct.x0/m, ct.x1/m, r.Float64())
 			return m, math.Min(q*m, m), nil
 		}
 	}
 	return 0, 0, errRejection
 }
 
-// drawFeH draws a raw [Fe/H] (dex) inside bin b by inverting the distribution function.
-func (lb *liveBound) drawFeH(cp *ComponentPlan, b int, u float64) float64 {
-	e0, e1 := lb.edges[b], lb.edges[b+1]
-	if e1 <= e0 {
-		return e0
-	}
-	c0, c1 := cp.FeH.CDF(e0), cp.FeH.CDF(e1)
-	return math.Max(e0, math.Min(e1, cp.FeH.Quantile(c0+u*(c1-c0))))
-}
-
 // draw draws one proposal of shell s: class 1 (primary live) or class 2 (companion live,
 // primary not). keep is false for a proposal thinned away, or a class-2 draw whose
-// primary is live. Draws: the segment, [Fe/H], mass(es), acceptance and age from rm; the
+// primary is live. Draws: the entry, [Fe/H], mass(es), acceptance and age from rm; the
 // class-1 companion from rs.
 func (lb *liveBound) draw(cp *ComponentPlan, s int, companion bool, rm, rs *rand.Rand) (m1, m2, ageYr, feh float64, keep bool, err error) {
 	l := &lb.prim
@@ -422,31 +522,32 @@ func (lb *liveBound) draw(cp *ComponentPlan, s int, companion bool, rm, rs *rand
 	}
 	c := l.pick(s, rm.Float64())
 	b, i := int(c.bin), int(c.mass)
-	feh = lb.drawFeH(cp, b, rm.Float64())
+	e0, e1, c0, c1 := lb.fehSpan(b, int(c.fs))
+	feh = e0
+	if e1 > e0 {
+		feh = math.Max(e0, math.Min(e1, cp.FeH.Quantile(c0+rm.Float64()*(c1-c0))))
+	}
 	_, fq := quantiseFeH(feh)
-	x0, x1 := boundMassGrid[i], boundMassGrid[i+1]
 	var mStar float64 // the member whose cell was chosen
 	if !companion {
-		f0, f1 := cp.IMF.CDF(x0), cp.IMF.CDF(x1)
+		_, _, f0, f1 := lb.massSpan(i, int(c.ms))
 		m1 = cp.IMF.Quantile(f0 + rm.Float64()*(f1-f0))
 		mStar = m1
 	} else {
-		if m1, m2, err = lb.drawPrimaryGivenCompanion(cp, x0, x1, rm); err != nil {
+		if m1, m2, err = lb.drawPrimaryGivenCompanion(cp, &lb.compTab[i][c.ms+1], rm); err != nil {
 			return 0, 0, 0, 0, false, err
 		}
 		mStar = m2
 	}
-	// Thinning from the cell's envelope to the star's own t_MS, then the age.
+	// Thinning from the entry's envelope to the star's own t_MS, then the age.
 	t := lb.tMS(b, i, mStar, fq)
-	tLo, tHi := lb.tRange(b, i)
-	env := ageProb(cp, c.t0*tLo, c.t1*tHi)
 	a0, a1 := c.t0*t, c.t1*t
 	g0 := cp.Ages.CDF(a0)
 	g1 := 1.0
 	if !math.IsInf(a1, 1) {
 		g1 = cp.Ages.CDF(a1)
 	}
-	if rm.Float64()*env >= g1-g0 {
+	if rm.Float64()*c.env >= g1-g0 {
 		return m1, m2, 0, feh, false, nil
 	}
 	ageYr = cp.Ages.Quantile(g0 + rm.Float64()*(g1-g0))

@@ -133,7 +133,7 @@ func TestCompanionProbMatchesDraws(t *testing.T) {
 // TestGaussFeHDistribution checks the truncated normal's CDF and quantile against
 // gonum's distuv.Normal (renormalised to [MinFeH, MaxFeH]) and against each other.
 func TestGaussFeHDistribution(t *testing.T) {
-	g := gaussFeH{mean: -0.6, sigma: 0.3}
+	g := newGaussFeH(-0.6, 0.3)
 	n := distuv.Normal{Mu: g.mean, Sigma: g.sigma}
 	lo, hi := n.CDF(MinFeH), n.CDF(MaxFeH)
 	for _, x := range []float64{-2.2, -1.5, -0.9, -0.6, -0.2, 0.1} {
@@ -153,7 +153,7 @@ func TestGaussFeHDistribution(t *testing.T) {
 // TestFeHBins checks the metallicity bins of the bound: lattice edges inside the range,
 // no bin narrower than a fifth of a step, one zero-width bin for a fixed value.
 func TestFeHBins(t *testing.T) {
-	e := fehBins(gaussFeH{mean: -0.1, sigma: 0.2})
+	e := fehBins(newGaussFeH(-0.1, 0.2))
 	if math.Abs(e[0]+1.3) > 1e-12 || e[len(e)-1] != MaxFeH {
 		t.Errorf("edges %v: want −1.3 … %g", e, MaxFeH)
 	}

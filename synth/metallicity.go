@@ -37,7 +37,14 @@ func (f fixedFeH) CDF(x float64) float64 {
 // gaussFeH is a normal distribution truncated to the evolution model's range by redrawing:
 // the tails outside [MinFeH, MaxFeH] cannot be evolved, and dropping them is documented in
 // the README rather than clamping them onto the edges.
-type gaussFeH struct{ mean, sigma float64 }
+type gaussFeH struct {
+	mean, sigma float64
+	pLo, pHi    float64 // Φ at MinFeH and MaxFeH
+}
+
+func newGaussFeH(mean, sigma float64) gaussFeH {
+	return gaussFeH{mean: mean, sigma: sigma, pLo: phi((MinFeH - mean) / sigma), pHi: phi((MaxFeH - mean) / sigma)}
+}
 
 func (g gaussFeH) FeH(r *rand.Rand) float64 {
 	for {
@@ -54,15 +61,13 @@ func (g gaussFeH) Range() (float64, float64) {
 // CDF of the normal truncated to [MinFeH, MaxFeH]: (Φ(z) − Φ(z_min)) / (Φ(z_max) − Φ(z_min)).
 func (g gaussFeH) CDF(x float64) float64 {
 	x = math.Max(MinFeH, math.Min(MaxFeH, x))
-	lo, hi := phi((MinFeH-g.mean)/g.sigma), phi((MaxFeH-g.mean)/g.sigma)
-	return (phi((x-g.mean)/g.sigma) - lo) / (hi - lo)
+	return (phi((x-g.mean)/g.sigma) - g.pLo) / (g.pHi - g.pLo)
 }
 
 // Quantile inverts CDF: x = μ + σ Φ⁻¹(Φ(z_min) + p (Φ(z_max) − Φ(z_min))), with
 // Φ⁻¹(y) = −√2 erfc⁻¹(2y).
 func (g gaussFeH) Quantile(p float64) float64 {
-	lo, hi := phi((MinFeH-g.mean)/g.sigma), phi((MaxFeH-g.mean)/g.sigma)
-	y := lo + p*(hi-lo)
+	y := g.pLo + p*(g.pHi-g.pLo)
 	x := g.mean - g.sigma*math.Sqrt2*math.Erfcinv(2*y)
 	return math.Max(MinFeH, math.Min(MaxFeH, x))
 }
@@ -87,7 +92,7 @@ func (s *Scenario) fehSampler(p string, m Metallicity) (FeHSampler, error) {
 		if m.FeH < MinFeH || m.FeH > MaxFeH {
 			return nil, s.errf(p+".feh", "%g dex is out of range; allowed: %g to %g", m.FeH, MinFeH, MaxFeH)
 		}
-		return gaussFeH{m.FeH, m.SigmaDex}, nil
+		return newGaussFeH(m.FeH, m.SigmaDex), nil
 	case "table":
 		pl, err := loadPiecewiseLinear(s.resolvePath(m.Table), "feh", "weight", MinFeH, MaxFeH)
 		if err != nil {
