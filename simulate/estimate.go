@@ -2,6 +2,7 @@ package simulate
 
 import (
 	"context"
+	"math"
 	"time"
 
 	"github.com/starmock/starmock/output"
@@ -13,6 +14,7 @@ import (
 type EstimateReport struct {
 	Components     []ComponentEstimate
 	Stars          int64
+	Rows           int64 // expected catalogue rows (from the sample's rows per drawn star)
 	Chunks         int
 	ChunkSize      int
 	Columns        int
@@ -29,14 +31,19 @@ type ComponentEstimate struct {
 	Stars int64
 }
 
-// sampleStars is the number of stars simulated (and discarded) to time a dry run.
-const sampleStars = 4000
+// sampleStars is the number of stars simulated (and discarded) to time a dry run, in
+// sampleChunks chunks per component.
+const (
+	sampleStars  = 4000
+	sampleChunks = 12
+)
 
 // Estimate resolves the plan (which validates every table and model and counts the
 // stars of total-mass components) and times the simulation of up to sampleStars stars
-// taken from the first, middle and last chunk of each component, without writing
-// anything; the time ignores the writers and assumes perfect use of the workers. File
-// sizes are estimated from the column types: exact row widths for FITS and Arrow,
+// taken from chunks spread over each component, without writing
+// anything; the time ignores the writers and assumes perfect use of the workers. The
+// number of rows is the drawn stars times the sample's rows per drawn star. File sizes
+// are estimated from the column types: exact row widths for FITS and Arrow,
 // about 9 bytes per numeric value for CSV, and 60 % of the Arrow size for compressed
 // Parquet (typical of the random-valued float columns of a catalogue; a rough figure).
 func Estimate(ctx context.Context, s *synth.Scenario, workers int) (*EstimateReport, error) {
@@ -57,11 +64,14 @@ func Estimate(ctx context.Context, s *synth.Scenario, workers int) (*EstimateRep
 		return nil, err
 	}
 	e.Columns = len(sel)
-	// The sample: the first, middle and last chunk of each component, each cut to a
-	// share of sampleStars (chunk costs vary along a Galactic sight line). A first pass
-	// warms the shared caches (evolution models, shell samplers); the second is timed.
+	// The sample: sampleChunks chunks of each component evenly spaced over its chunk
+	// list, each cut to a share of sampleStars. Galactic stars are ordered by distance
+	// shell, so evenly spaced chunks sample the shells in proportion to their stars
+	// (costs and the share of stars that get a row vary strongly along a sight line). A
+	// first pass warms the shared caches (evolution models, shell samplers); the second
+	// is timed.
 	var sample []synth.ChunkRef
-	per := sampleStars / (3 * len(plan.Components))
+	per := max(1, sampleStars/(sampleChunks*len(plan.Components)))
 	byComp := map[int][]synth.ChunkRef{}
 	for _, ch := range plan.Chunks {
 		byComp[ch.Component] = append(byComp[ch.Component], ch)
@@ -71,7 +81,11 @@ func Estimate(ctx context.Context, s *synth.Scenario, workers int) (*EstimateRep
 		if len(chs) == 0 {
 			continue
 		}
-		picks := []int{0, len(chs) / 2, len(chs) - 1}
+		k := min(sampleChunks, len(chs))
+		picks := make([]int, k)
+		for j := range picks {
+			picks[j] = (2*j + 1) * len(chs) / (2 * k)
+		}
 		seen := map[int]bool{}
 		for _, k := range picks {
 			if seen[k] {
@@ -90,8 +104,23 @@ func Estimate(ctx context.Context, s *synth.Scenario, workers int) (*EstimateRep
 	if err := plan.Run(ctx, sample, 1, discard); err != nil {
 		return nil, err
 	}
+	var sampleRows int64
+	count := func(r synth.Result) error {
+		b := r.Batch
+		if !s.Output.DetectedOnly {
+			sampleRows += int64(b.N)
+			return nil
+		}
+		det := b.Cols[len(b.Cols)-1].([]bool) // the detected column is the last one
+		for _, d := range det[:b.N] {
+			if d {
+				sampleRows++
+			}
+		}
+		return nil
+	}
 	start := time.Now()
-	if err := plan.Run(ctx, sample, 1, discard); err != nil {
+	if err := plan.Run(ctx, sample, 1, count); err != nil {
 		return nil, err
 	}
 	el := time.Since(start)
@@ -115,7 +144,13 @@ func Estimate(ctx context.Context, s *synth.Scenario, workers int) (*EstimateRep
 	if err != nil {
 		return nil, err
 	}
+	// Rows: the sample's share of drawn stars that get a row (Galactic fields drop the
+	// draws that cannot be detected; detected_only keeps detected rows only).
 	n := float64(plan.Stars)
+	if e.SampleStars > 0 {
+		n *= float64(sampleRows) / float64(e.SampleStars)
+	}
+	e.Rows = int64(math.Round(n))
 	for _, f := range s.Output.Formats {
 		var b float64
 		switch f {

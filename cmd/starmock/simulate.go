@@ -178,6 +178,9 @@ func dryRun(cmd *cobra.Command, s *synth.Scenario, o *simulateOptions, w io.Writ
 		fmt.Fprintf(w, "  component %-16s %12d stars\n", c.Name, c.Stars)
 	}
 	fmt.Fprintf(w, "expected stars: %d in %d chunks of %d\n", est.Stars, est.Chunks, est.ChunkSize)
+	if est.Rows != est.Stars {
+		fmt.Fprintf(w, "expected rows: about %d (stars that cannot be detected get none)\n", est.Rows)
+	}
 	fmt.Fprintf(w, "columns: %d\n", est.Columns)
 	for _, f := range est.Files {
 		fmt.Fprintf(w, "expected output: %s about %s\n", f.Path, humanBytes(f.Bytes))
