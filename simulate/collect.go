@@ -54,9 +54,12 @@ func NewCollector(p *synth.Plan, sampleSize int) (*Collector, error) {
 	if c.Counts, err = summary.NewStarCounts(c.bands, magBins); err != nil {
 		return nil, err
 	}
+	// Magnitude axis: from 1 mag above saturation (at most 16 mag above the 5σ depth, so a
+	// survey without a real saturation limit still gets a readable axis) to 1.5 mag below
+	// the depth.
 	lo, hi := 40.0, -5.0
 	for _, s := range p.Survey.Specs {
-		lo = math.Min(lo, s.SaturationMag-1)
+		lo = math.Min(lo, math.Max(s.SaturationMag-1, s.Limit5SigmaMag-16))
 		hi = math.Max(hi, s.Limit5SigmaMag+1.5)
 	}
 	mb, err := summary.NewBinning(math.Floor(lo), math.Ceil(hi), int(math.Ceil(hi)-math.Floor(lo))*8)
