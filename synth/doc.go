@@ -40,6 +40,10 @@
 //   - Duchêne, G. & Kraus, A. 2013, ARA&A 51, 269 (default field binary fractions).
 //   - Jurić, M. et al. 2008, ApJ 673, 864; Ivezić, Ž. et al. 2008, ApJ 684, 287 (Galactic
 //     structure and default metallicities, the latter from memory).
+//   - Bland-Hawthorn, J. & Gerhard, O. 2016, ARA&A 54, 529; Dwek, E. et al. 1995, ApJ 445,
+//     716; Sesar, B., Jurić, M. & Ivezić, Ž. 2011, ApJ 731, 4; the Gaia 100 pc census,
+//     arXiv:2507.06052 (the other defaults and examples of the field.structure keys, via
+//     package galaxy).
 //   - Ivezić, Ž. et al. 2019, ApJ 873, 111 (the survey noise model, via package observe).
 //   - Li, L. et al. 2018, ApJ 858, 75 (the default dust scale height, via package dust).
 //   - Planck Collaboration 2020, A&A 641, A6 (the 13.8 Gyr age limit, from memory).

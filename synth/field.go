@@ -16,6 +16,9 @@ type Field struct {
 	// detection rule at any age, metallicity or extinction the component allows (with
 	// expected numbers adjusted). Default true.
 	SkipUndetectable *bool `yaml:"skip_undetectable,omitempty" json:"skip_undetectable"`
+	// Structure overrides the Galactic model's density laws (see Structure); absent, the
+	// published defaults of galaxy.DefaultParams.
+	Structure *Structure `yaml:"structure,omitempty" json:"structure,omitempty"`
 }
 
 // Area is a patch of sky.
@@ -112,5 +115,5 @@ func (s *Scenario) validateField() error {
 	if d.Model == "table" && d.Table == "" {
 		return s.errf("field.dust.table", "missing: a file of distance, A_V rows")
 	}
-	return nil
+	return s.validateStructure()
 }

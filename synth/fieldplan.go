@@ -235,10 +235,9 @@ func (s *Scenario) fieldShared(p *Plan) (*fieldShared, error) {
 	if err != nil {
 		return nil, s.errf("field", "%v", err)
 	}
-	params := galaxy.DefaultParams()
-	model, err := galaxy.NewModel(params)
+	model, err := galaxy.NewModel(f.GalaxyParams()) // defaults with field.structure written over them
 	if err != nil {
-		return nil, s.errf("field", "%v", err)
+		return nil, s.structureErr(err)
 	}
 	fd, err := s.newFieldDust(model)
 	if err != nil {

@@ -90,6 +90,53 @@ field:                        required when there are Galactic components
     table: av.txt
   skip_undetectable: true     do not simulate stars that cannot pass the detection
                               rule at any age, metallicity or extinction allowed
+  structure:                  the Galactic density laws (package galaxy); every key
+                              is optional and defaults to the value shown. The thin
+                              disc's mid-plane density is set so that all components
+                              sum to local_density_msun_pc3 at the Sun (Juric et al.
+                              2008 eqs. 22-24); density_scale multiplies the result
+    local_density_msun_pc3: 0.040
+                              present-day stars and remnants of all components at
+                              the Sun, Msun/pc^3, (0, 10]; Gaia 100 pc census
+                              (arXiv:2507.06052, Kroupa IMF correction)
+    thick_to_thin_local: 0.12 thick/thin mid-plane density at the Sun's radius,
+                              [0, 10]; Juric et al. 2008 (f)
+    halo_to_thin_local: 0.005 halo/thin density there, [0, 1]; Juric et al. 2008 (f_h)
+    sun:
+      r0_pc: 8200             Sun-Galactic-centre distance, (0, 20000] pc;
+                              Bland-Hawthorn & Gerhard 2016
+      z_pc: 25                height above the mid-plane, [-200, 200] pc;
+                              Bland-Hawthorn & Gerhard 2016 (the dust layer keeps its
+                              own 23 pc)
+    thin_disc:                rho ~ exp(-R/L - |z|/H), Juric et al. 2008 eq. 22
+      scale_length_pc: 2600   L, [100, 20000] pc; Juric et al. 2008 (L1)
+      scale_height_pc: 300    H, [10, 5000] pc; Juric et al. 2008 (H1); one height
+                              for stars of all ages
+    thick_disc:               same law
+      scale_length_pc: 3600   L, [100, 20000] pc; Juric et al. 2008 (L2)
+      scale_height_pc: 900    H, [10, 10000] pc; Juric et al. 2008 (H2)
+    halo:                     rho ~ (R^2 + (z/q)^2 + a^2)^(-n/2): Juric et al. 2008
+                              eq. 24 with a core radius a
+      axis_ratio: 0.64        q = c/a (below 1: flattened), [0.1, 2]; Juric et al.
+                              2008 (q_H)
+      power_law_index: 2.8    n, [0, 6]; Juric et al. 2008 (n_H)
+      core_radius_pc: 500     a, [0, 20000] pc; our softening (changes the law by
+                              < 1 % beyond 4.8 kpc)
+      break_radius_pc: 0      0 = no break, else (0, 1e6] pc: the law steepens to
+                              outer_index beyond it, continuously (Sesar, Juric &
+                              Ivezic 2011: 28000 pc)
+      outer_index: 3.8        index beyond the break, [0, 10]; no default, required
+                              with a break (Sesar et al. 2011: 3.8)
+    bulge:                    triaxial bar, Dwek et al. 1995 model G2
+      mass_msun: 1.5e10       present-day stellar mass, [0, 1e12] (0 = no bulge);
+                              Bland-Hawthorn & Gerhard 2016; its density at the Sun
+                              must stay below local_density_msun_pc3
+      x0_pc: 1580             scale lengths along the bar, across it and vertically,
+      y0_pc: 620              each [10, 10000] pc; Dwek et al. 1995 (G2)
+      z0_pc: 430
+      bar_angle_deg: 27       bar major axis from the Sun-centre line, near end at
+                              l > 0, [-90, 90]; Bland-Hawthorn & Gerhard 2016
+                              (bulge values recalled, see package galaxy)
 survey:
   name: free text
   bands:                      one entry per band (see 'starmock bands')
