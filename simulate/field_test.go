@@ -322,30 +322,61 @@ func TestFieldSkipUndetectableSameSample(t *testing.T) {
 	}
 }
 
-// BenchmarkSkipUndetectable times the field of TestFieldSkipUndetectableSameSample (g ≈ 22,
-// r ≈ 21.5 at b = 40°) with the bound off and on, for a 0.5 deg² cone (radius 0.4°) and a
-// 12.6 deg² cone (radius 2°), reporting the stars simulated per run. The bound is built
-// once per run and component (a grid of evolved masses, ages and metallicities), so it
-// pays off only when the field is large enough.
+// BenchmarkSkipUndetectable times Galactic fields with the bound off and on: the deep
+// field of TestFieldSkipUndetectableSameSample (g ≈ 22, r ≈ 21.5 at b = 40°) in a 0.5 deg²
+// cone (radius 0.4°) and a 12.6 deg² cone (radius 2°), where most stars can be detected
+// and the bound saves little, and a bright survey (V ≈ 8, the whole-sky benchmark's
+// depth) in a 100 deg² cone (radius 5.64°) at b = 20°, where almost nothing can. It
+// reports the systems drawn per run. The bound's brightness grid is built once per run
+// (about 1–2 s of CPU), so it pays off only when the field is large or shallow.
 func BenchmarkSkipUndetectable(b *testing.B) {
+	type field struct{ name, text string }
+	var fields []field
 	for _, radius := range []string{"0.4", "2"} {
 		for _, skip := range []bool{false, true} {
-			name := "radius" + radius + "deg/off"
+			name := "deep/radius" + radius + "deg/off"
 			if skip {
-				name = "radius" + radius + "deg/on"
+				name = "deep/radius" + radius + "deg/on"
 			}
-			b.Run(name, func(b *testing.B) {
-				b.ReportAllocs()
-				var stars int64
-				for i := 0; i < b.N; i++ {
-					rep, _, _ := fieldRun(b, skipScenario(radius, skip), func(*fieldRow) {})
-					stars = rep.Stars
-				}
-				b.ReportMetric(float64(stars), "stars/op")
-			})
+			fields = append(fields, field{name, skipScenario(radius, skip)})
 		}
 	}
+	for _, skip := range []bool{false, true} {
+		name := "bright/radius5.64deg/off"
+		if skip {
+			name = "bright/radius5.64deg/on"
+		}
+		fields = append(fields, field{name, fmt.Sprintf(brightField, skip)})
+	}
+	for _, f := range fields {
+		b.Run(f.name, func(b *testing.B) {
+			b.ReportAllocs()
+			var stars int64
+			for i := 0; i < b.N; i++ {
+				rep, _, _ := fieldRun(b, f.text, func(*fieldRow) {})
+				stars = rep.Stars
+			}
+			b.ReportMetric(float64(stars), "stars/op")
+		})
+	}
 }
+
+// brightField is a 100 deg² cone at (l, b) = (60°, 20°) seen to V ≈ 8 (%v: skip_undetectable).
+const brightField = `seed: 37
+components:
+  - {name: thin, kind: thin_disc}
+  - {name: thick, kind: thick_disc}
+  - {name: halo, kind: halo}
+  - {name: bulge, kind: bulge}
+field:
+  area: {kind: cone, l_deg: 60, b_deg: 20, radius_deg: 5.64}
+  min_distance_pc: 1
+  max_distance_pc: 30000
+  skip_undetectable: %v
+survey:
+  bands: [{band: V, limit_5sigma_mag: 8, saturation_mag: -30}]
+output: {path: cat, formats: [parquet]}
+`
 
 // ---------------------------------------------------------------------------------------
 // 2. Whole-sky star counts.
