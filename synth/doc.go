@@ -18,8 +18,11 @@
 // shell from package galaxy, converted to initial mass by a Monte Carlo of its own IMF,
 // history and evolution, divided by the mean initial mass of a system (primary plus
 // companion) into an expected number of systems, drawn as a Poisson number per shell.
-// Systems that cannot pass the detection rule at any age, metallicity or extinction are
-// skipped (see detectBound in bound.go).
+// With skip_undetectable, only systems with a member that may pass the detection rule
+// in their shell are drawn: cells of ([Fe/H], initial mass, age in units of the
+// main-sequence lifetime) carry a brightness bound (bound.go), and the live cells of
+// each shell are sampled directly, with Poisson thinning and a second class for systems
+// seen only through their companion (liveBound in live.go).
 //
 // Ages. Burst (Gaussian spread truncated to 0–13.8 Gyr), constant, exponentially
 // declining, or a piecewise-linear table; [Fe/H] fixed, Gaussian (truncated to the
@@ -38,6 +41,8 @@
 //
 //   - Plummer, H. C. 1911, MNRAS 71, 460 (the cluster profile).
 //   - Duchêne, G. & Kraus, A. 2013, ARA&A 51, 269 (default field binary fractions).
+//   - Kroupa, P., Tout, C. A. & Gilmore, G. 1993, MNRAS 262, 545 (default field mass
+//     function, from memory).
 //   - Jurić, M. et al. 2008, ApJ 673, 864; Ivezić, Ž. et al. 2008, ApJ 684, 287 (Galactic
 //     structure and default metallicities, the latter from memory).
 //   - Bland-Hawthorn, J. & Gerhard, O. 2016, ARA&A 54, 529; Dwek, E. et al. 1995, ApJ 445,

@@ -47,8 +47,7 @@ import (
 // number of shells they are live in, so the live segments of every shell are a prefix of
 // one list.
 type liveBound struct {
-	edges []float64 // [Fe/H] bin edges (dex); one bin of zero width for a fixed value
-	pBin  []float64
+	edges []float64      // [Fe/H] bin edges (dex); one bin of zero width for a fixed value
 	kns   [][2]*keyNodes // brightness nodes of the two rounded metallicities bracketing each bin
 	prim  liveList
 	comp  liveList
@@ -249,14 +248,14 @@ func newLiveBound(p *Plan, cp *ComponentPlan, muInner []float64) (*liveBound, er
 			c[k] = cp.FeH.CDF(e[k])
 		}
 		e[liveSubFeH] = lb.edges[b+1]
-		if fixed {
-			c = []float64{0, 0.5, 1}[:liveSubFeH+1]
-			c[liveSubFeH] = 1
+		if fixed { // a single value: the whole weight in the one bin
+			for k := range c {
+				c[k] = float64(k) / liveSubFeH
+			}
 		} else {
 			c[liveSubFeH] = cp.FeH.CDF(lb.edges[b+1])
 		}
 		lb.subFeH, lb.subFeHCDF = append(lb.subFeH, e), append(lb.subFeHCDF, c)
-		lb.pBin = append(lb.pBin, math.Max(0, c[liveSubFeH]-c[0]))
 	}
 	nm := boundMasses - 1
 	for i := 0; i < nm; i++ {
@@ -400,8 +399,8 @@ func (lb *liveBound) level(b int, m, fq, ageYr float64) int32 {
 	return lb.segLevel[seg]
 }
 
-// qLaw returns the mass-ratio law's exponent γ+1 and the probability that q lies in
-// [a, b] (clipped to [q_min, q_max]).
+// qProb returns the probability that the mass ratio q lies in [a, b] (clipped to
+// [q_min, q_max]) under the ratio law dN/dq ∝ q^γ.
 func (lb *liveBound) qProb(a, b float64) float64 {
 	bm := lb.bin
 	a, b = math.Max(a, bm.qMin), math.Min(b, bm.qMax)
