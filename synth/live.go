@@ -519,6 +519,9 @@ func (lb *liveBound) draw(cp *ComponentPlan, s int, companion bool, rm, rs *rand
 	if companion {
 		l = &lb.comp
 	}
+	if l.nLive[s] == 0 { // nothing can be proposed (a zero-weight class is never drawn)
+		return 0, 0, 0, 0, false, nil
+	}
 	c := l.pick(s, rm.Float64())
 	b, i := int(c.bin), int(c.mass)
 	e0, e1, c0, c1 := lb.fehSpan(b, int(c.fs))

@@ -42,7 +42,8 @@ output: {path: cat, formats: [parquet]}
 // rate, for both classes. The two estimates must agree within 4 combined standard errors
 // (binomial; common practice), and every accepted draw must be one MayDetect keeps.
 func TestLiveSamplerMatchesBruteForce(t *testing.T) {
-	for _, kind := range []string{"thin_disc", "thick_disc"} {
+	// The last case has a single [Fe/H] and no companions (one bin, no class 2).
+	for _, kind := range []string{"thin_disc", "thick_disc", "halo, metallicity: {kind: fixed, feh: -1.2}, binaries: {fraction: 0}"} {
 		cp := liveScenario(t, kind)
 		f, lb := cp.field, cp.field.live
 		for _, sh := range []int{30, 40, 48, 54} {
@@ -58,7 +59,10 @@ func TestLiveSamplerMatchesBruteForce(t *testing.T) {
 				m1 := cp.IMF.Rand(rm)
 				a := cp.Ages.Age(rs)
 				feh := cp.FeH.FeH(rs)
-				m2 := cp.binaries.draw(m1, rs)
+				m2 := 0.0
+				if cp.binaries != nil {
+					m2 = cp.binaries.draw(m1, rs)
+				}
 				if cp.MayDetect(d, m1, m2, a, feh) {
 					hit++
 				}
@@ -70,6 +74,9 @@ func TestLiveSamplerMatchesBruteForce(t *testing.T) {
 				w := lb.prim.weight(sh)
 				if comp {
 					w = lb.comp.weight(sh)
+				}
+				if w == 0 {
+					continue // nothing to propose (no companions)
 				}
 				const m = 100000
 				acc := 0
