@@ -65,10 +65,12 @@ func galacticDefaults(c *Component) {
 	}
 }
 
-// fieldPos locates a field star: the shell it was drawn in, and whether it was drawn in
-// the companion class of the detectability bound (see liveBound).
+// fieldPos locates a field star: the shell it was drawn in, its age slice (see
+// fieldSlice), and whether it was drawn in the companion class of the detectability
+// bound (see liveBound).
 type fieldPos struct {
 	shell     int
+	slice     int
 	companion bool
 }
 
@@ -80,24 +82,42 @@ type fieldPlan struct {
 	model  *galaxy.Model
 	area   galaxy.Area
 	shells []galaxy.Shell
-	// Per shell: expected systems before and after the detectability bound, the lowest
-	// initial mass that may be detected, and the drawn counts (class 1 first, then
-	// class 2 of the bound; all in class 1 without it).
+	// Per shell, summed over slices: expected systems before and after the
+	// detectability bound, the lowest initial mass that may be detected, and the drawn
+	// count.
 	expectedAll []float64
 	expected    []float64
 	massBound   []float64
 	counts      []int64
-	counts1     []int64
-	cum         []int64   // cum[i] = systems in shells before i
-	muInner     []float64 // distance modulus of each shell's inner edge
-	imfLo       float64
-	live        *liveBound
-	lum         *lumBound
-	ext         *extinctionPlan
-	dust        *fieldDust
-	// Factors used to turn the density law into systems.
+	// slices are the age slices of the component (one, the whole component, unless the
+	// thin disc's scale height depends on age). Stars are laid out shell by shell, and
+	// within a shell slice by slice, class 1 before class 2: cum[s*K+k] counts the
+	// systems before (shell s, slice k).
+	slices  []*fieldSlice
+	cum     []int64
+	muInner []float64 // distance modulus of each shell's inner edge
+	imfLo   float64
+	lum     *lumBound
+	ext     *extinctionPlan
+	dust    *fieldDust
+	// meanSystemMsun turns initial mass into systems (primary plus mean companion).
+	meanSystemMsun float64
+}
+
+// fieldSlice is an age slice of a Galactic component: the component itself with its
+// whole age distribution, or — for a thin disc whose scale height grows with age — the
+// stars of ages [ageLo, ageHi) placed with their own scale height.
+type fieldSlice struct {
+	cp           *ComponentPlan // the component, or a copy with the slice's ages
+	model        *galaxy.Model  // the density law of the slice
+	ageLo, ageHi float64
+	heightPc     float64 // thin-disc scale height of the slice (0: not a thin-disc slice)
+	// factor multiplies the slice model's shell masses (see heatedSlices); 1 otherwise.
+	factor            float64
 	initialPerPresent float64
-	meanSystemMsun    float64
+	live              *liveBound
+	expectedAll       []float64 // per shell
+	counts1, counts2  []int64   // per shell: class 1 and class 2 (all in class 1 without the bound)
 }
 
 // ShellInfo is one distance shell of a Galactic component, for forecasts.
@@ -133,14 +153,21 @@ func (cp *ComponentPlan) Shells() []ShellInfo {
 // true.
 func (cp *ComponentPlan) MayDetect(dPc, m1, m2, ageYr, fehDex float64) bool {
 	f := cp.field
-	if f == nil || f.live == nil {
+	if f == nil || f.slices[0].live == nil {
 		return true
 	}
 	s := sort.Search(len(f.shells), func(i int) bool { return f.shells[i].OuterPc > dPc })
 	if s == len(f.shells) {
 		return true
 	}
-	lb := f.live
+	k := len(f.slices) - 1
+	for n, sl := range f.slices {
+		if ageYr < sl.ageHi {
+			k = n
+			break
+		}
+	}
+	lb := f.slices[k].live
 	b := sort.SearchFloat64s(lb.edges, fehDex) - 1
 	b = max(0, min(b, len(lb.edges)-2))
 	_, fq := quantiseFeH(fehDex)
@@ -152,8 +179,10 @@ func (cp *ComponentPlan) MayDetect(dPc, m1, m2, ageYr, fehDex float64) bool {
 
 // locate returns the position of the component's star with index starIdx.
 func (f *fieldPlan) locate(starIdx int64) fieldPos {
-	i := sort.Search(len(f.counts), func(i int) bool { return f.cum[i+1] > starIdx })
-	return fieldPos{shell: i, companion: starIdx-f.cum[i] >= f.counts1[i]}
+	nk := len(f.slices)
+	i := sort.Search(len(f.cum)-1, func(i int) bool { return f.cum[i+1] > starIdx })
+	s, k := i/nk, i%nk
+	return fieldPos{shell: s, slice: k, companion: starIdx-f.cum[i] >= f.slices[k].counts1[s]}
 }
 
 // skipFaint reports whether an evolved system (primary s1, companion s2 with their light
@@ -175,9 +204,11 @@ func (f *fieldPlan) skipFaint(fp fieldPos, s1, s2 evolve.Star, light1, light2 bo
 // draw draws a field system: with the detectability bound from the live cells of its
 // shell (see liveBound.draw; keep is false for a thinned companion-class draw), else
 // like any system (mass from rm; age, [Fe/H] and companion from rs).
-func (f *fieldPlan) draw(cp *ComponentPlan, fp fieldPos, rm, rs *rand.Rand) (m1, m2, ageYr, feh float64, keep bool, err error) {
-	if f.live != nil {
-		return f.live.draw(cp, fp.shell, fp.companion, rm, rs)
+func (f *fieldPlan) draw(fp fieldPos, rm, rs *rand.Rand) (m1, m2, ageYr, feh float64, keep bool, err error) {
+	sl := f.slices[fp.slice]
+	cp := sl.cp
+	if sl.live != nil {
+		return sl.live.draw(cp, fp.shell, fp.companion, rm, rs)
 	}
 	m1 = cp.IMF.Rand(rm)
 	ageYr = cp.Ages.Age(rs)
@@ -273,47 +304,8 @@ func (s *Scenario) newFieldPlan(ctx context.Context, p *Plan, cp *ComponentPlan,
 	}
 	f.ext = &extinctionPlan{table: table, spread: spread, ebvPerAV: 1 / law.RV(), field: sh.dust}
 
-	// Initial mass per present mass over 20000 primaries of the component: masses at the
-	// stratified IMF quantiles (i + 1/2)/n and ages at the history's quantiles of the
-	// golden-ratio sequence frac(i φ) (a quasi-random design with far less scatter than
-	// random draws, so the normalisation barely depends on the seed); [Fe/H] from the
-	// plan stream.
-	r := newStream(p.Seed, cp.Index, 1, streamPlan)
-	var sumInit, sumPresent float64
-	const nMC = 20000
-	const phiFrac = 0.6180339887498949 // golden ratio − 1
-	for i := 0; i < nMC; i++ {
-		m := cp.IMF.Quantile((float64(i) + 0.5) / nMC)
-		_, pa := math.Modf(float64(i) * phiFrac)
-		a := cp.Ages.Quantile(pa)
-		key, fq := quantiseFeH(cp.FeH.FeH(r))
-		mod, err := p.model(key, fq)
-		if err != nil {
-			return nil, s.errf(path+".metallicity", "%v", err)
-		}
-		st, err := mod.Evolve(m, a)
-		if err != nil {
-			return nil, s.errf(path, "%v", err)
-		}
-		sumInit += m
-		sumPresent += st.MassMsun
-	}
-	f.initialPerPresent = sumInit / sumPresent
 	f.meanSystemMsun = cp.IMF.Mean() + meanCompanionMass(cp)
-	if err := f.model.SetInitialMassPerPresentMass(c.Kind, f.initialPerPresent); err != nil {
-		return nil, s.errf(path+".kind", "%v", err)
-	}
-	masses, err := f.model.ShellMasses(f.area, f.shells, []string{c.Kind}, galaxy.IntegrationOptions{})
-	if err != nil {
-		return nil, s.errf("field", "%v", err)
-	}
 	n := len(f.shells)
-	f.expectedAll = make([]float64, n)
-	f.expected = make([]float64, n)
-	f.massBound = make([]float64, n)
-	f.counts = make([]int64, n)
-	f.counts1 = make([]int64, n)
-	f.cum = make([]int64, n+1)
 	f.muInner = make([]float64, n)
 	for i := range f.shells {
 		f.muInner[i] = math.Inf(-1)
@@ -321,41 +313,82 @@ func (s *Scenario) newFieldPlan(ctx context.Context, p *Plan, cp *ComponentPlan,
 			f.muInner[i] = consts.DistanceModulus(f.shells[i].InnerPc)
 		}
 	}
-	if *s.Field.SkipUndetectable {
-		if f.live, err = newLiveBound(p, cp, f.muInner); err != nil {
+	if f.slices, err = s.fieldSlices(p, cp, c, sh.model); err != nil {
+		return nil, err
+	}
+	r := newStream(p.Seed, cp.Index, 1, streamPlan)
+	for _, sl := range f.slices {
+		if sl.initialPerPresent, err = initialPerPresent(p, sl.cp, r); err != nil {
 			return nil, s.errf(path, "%v", err)
 		}
+	}
+	if len(f.slices) > 1 {
+		heatedFactors(f.slices, sh.model)
+	}
+	if *s.Field.SkipUndetectable {
 		f.lum = newLumBound(p.Survey)
 	}
-	pr := newStream(p.Seed, cp.Index, 0, streamPlan)
-	for i, sm := range masses {
-		f.expectedAll[i] = sm.InitialMassMsun * c.DensityScale / f.meanSystemMsun
-		e1, e2 := f.expectedAll[i], 0.0
-		f.massBound[i] = f.imfLo
-		if f.live != nil {
-			e1 = f.expectedAll[i] * f.live.prim.weight(i)
-			e2 = f.expectedAll[i] * f.live.comp.weight(i)
-			f.massBound[i] = math.Max(f.imfLo, f.live.massLow[i])
+	for _, sl := range f.slices {
+		if err := sl.model.SetInitialMassPerPresentMass(c.Kind, sl.initialPerPresent); err != nil {
+			return nil, s.errf(path+".kind", "%v", err)
 		}
-		f.expected[i] = e1 + e2
-		k1, err := galaxy.PoissonCount(e1, pr)
+		masses, err := sl.model.ShellMasses(f.area, f.shells, []string{c.Kind}, galaxy.IntegrationOptions{})
 		if err != nil {
 			return nil, s.errf("field", "%v", err)
 		}
-		k2 := int64(0)
-		if f.live != nil {
-			if k2, err = galaxy.PoissonCount(e2, pr); err != nil {
-				return nil, s.errf("field", "%v", err)
+		sl.expectedAll = make([]float64, n)
+		for i, sm := range masses {
+			sl.expectedAll[i] = sm.InitialMassMsun * c.DensityScale * sl.factor / f.meanSystemMsun
+		}
+		if *s.Field.SkipUndetectable {
+			if sl.live, err = newLiveBound(p, sl.cp, f.muInner); err != nil {
+				return nil, s.errf(path, "%v", err)
 			}
 		}
-		f.counts1[i] = k1
-		f.counts[i] = k1 + k2
-		f.cum[i+1] = f.cum[i] + k1 + k2
+		sl.counts1, sl.counts2 = make([]int64, n), make([]int64, n)
 		if err := ctx.Err(); err != nil {
 			return nil, err
 		}
 	}
-	cp.Stars = f.cum[n]
+	f.expectedAll = make([]float64, n)
+	f.expected = make([]float64, n)
+	f.massBound = make([]float64, n)
+	f.counts = make([]int64, n)
+	nk := len(f.slices)
+	f.cum = make([]int64, n*nk+1)
+	pr := newStream(p.Seed, cp.Index, 0, streamPlan)
+	for i := 0; i < n; i++ {
+		f.massBound[i] = math.Inf(1)
+		for k, sl := range f.slices {
+			e1, e2 := sl.expectedAll[i], 0.0
+			mb := f.imfLo
+			if sl.live != nil {
+				e1 = sl.expectedAll[i] * sl.live.prim.weight(i)
+				e2 = sl.expectedAll[i] * sl.live.comp.weight(i)
+				mb = math.Max(f.imfLo, sl.live.massLow[i])
+			}
+			k1, err := galaxy.PoissonCount(e1, pr)
+			if err != nil {
+				return nil, s.errf("field", "%v", err)
+			}
+			k2 := int64(0)
+			if sl.live != nil {
+				if k2, err = galaxy.PoissonCount(e2, pr); err != nil {
+					return nil, s.errf("field", "%v", err)
+				}
+			}
+			sl.counts1[i], sl.counts2[i] = k1, k2
+			f.expectedAll[i] += sl.expectedAll[i]
+			f.expected[i] += e1 + e2
+			f.counts[i] += k1 + k2
+			f.massBound[i] = math.Min(f.massBound[i], mb)
+			f.cum[i*nk+k+1] = f.cum[i*nk+k] + k1 + k2
+		}
+		if err := ctx.Err(); err != nil {
+			return nil, err
+		}
+	}
+	cp.Stars = f.cum[n*nk]
 	return f, nil
 }
 

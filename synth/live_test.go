@@ -45,7 +45,7 @@ func TestLiveSamplerMatchesBruteForce(t *testing.T) {
 	// The last case has a single [Fe/H] and no companions (one bin, no class 2).
 	for _, kind := range []string{"thin_disc", "thick_disc", "halo, metallicity: {kind: fixed, feh: -1.2}, binaries: {fraction: 0}"} {
 		cp := liveScenario(t, kind)
-		f, lb := cp.field, cp.field.live
+		f, lb := cp.field, cp.field.slices[0].live
 		for _, sh := range []int{30, 40, 48, 54} {
 			d := math.Sqrt(f.shells[sh].InnerPc * f.shells[sh].OuterPc)
 			if f.shells[sh].InnerPc*(1+1e-9) > d || d >= f.shells[sh].OuterPc {
@@ -112,7 +112,7 @@ func TestLiveSamplerMatchesBruteForce(t *testing.T) {
 // component's binary model (binomial 4σ; common practice).
 func TestCompanionProbMatchesDraws(t *testing.T) {
 	cp := liveScenario(t, "thin_disc")
-	lb := cp.field.live
+	lb := cp.field.slices[0].live
 	r := newStream(3, 0, 0, streamMass)
 	const n = 1000000
 	ivs := [][2]float64{{0.08, 0.1}, {0.3, 0.32}, {0.95, 1.0}, {2, 2.2}}

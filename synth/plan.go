@@ -36,26 +36,26 @@ type Plan struct {
 	bounds  map[int]*keyNodes // brightness nodes of the detectability bound by rounded [Fe/H]
 
 	samplerMu sync.Mutex
-	samplers  map[[2]int]*galaxy.ShellSampler // (component, shell)
+	samplers  map[[3]int]*galaxy.ShellSampler // (component, shell, age slice)
 }
 
 // sampler returns the position sampler of a Galactic component's shell, building it
 // once per plan (galaxy.ShellSampler is safe for concurrent use and its draws depend
 // only on the random stream passed in).
-func (p *Plan) sampler(comp, shell int) (*galaxy.ShellSampler, error) {
+func (p *Plan) sampler(comp, shell, slice int) (*galaxy.ShellSampler, error) {
 	p.samplerMu.Lock()
 	defer p.samplerMu.Unlock()
-	key := [2]int{comp, shell}
+	key := [3]int{comp, shell, slice}
 	if s, ok := p.samplers[key]; ok {
 		return s, nil
 	}
 	f := p.Components[comp].field
-	s, err := f.model.NewShellSampler(f.area, f.shells[shell], f.name)
+	s, err := f.slices[slice].model.NewShellSampler(f.area, f.shells[shell], f.name)
 	if err != nil {
 		return nil, err
 	}
 	if p.samplers == nil {
-		p.samplers = map[[2]int]*galaxy.ShellSampler{}
+		p.samplers = map[[3]int]*galaxy.ShellSampler{}
 	}
 	p.samplers[key] = s
 	return s, nil

@@ -111,7 +111,17 @@ field:                        required when there are Galactic components
     thin_disc:                rho ~ exp(-R/L - |z|/H), Juric et al. 2008 eq. 22
       scale_length_pc: 2600   L, [100, 20000] pc; Juric et al. 2008 (L1)
       scale_height_pc: 300    H, [10, 5000] pc; Juric et al. 2008 (H1); one height
-                              for stars of all ages
+                              for stars of all ages unless heating is given
+      heating:                optional: the height grows with age,
+                              H(t) = H ((t + offset)/(reference_age + offset))^index,
+                              applied to the thin-disc components in age slices that
+                              keep the local density (off when absent)
+        index: 0.5            (0, 2]; Wielen 1977 (disc heating by diffusion)
+        offset: 0.1Gyr        (0, 14 Gyr]; this package's choice
+        reference_age: 5Gyr   [0, 14 Gyr], the age whose height is scale_height_pc;
+                              this package's choice (the mean age of a constant
+                              10 Gyr history)
+        slices: 8             2-32 age slices, equal steps in ln(age + offset)
     thick_disc:               same law
       scale_length_pc: 3600   L, [100, 20000] pc; Juric et al. 2008 (L2)
       scale_height_pc: 900    H, [10, 10000] pc; Juric et al. 2008 (H2)

@@ -27,8 +27,8 @@ type Structure struct {
 	// Sun is the Sun's position in the Galaxy.
 	Sun *StructureSun `yaml:"sun,omitempty" json:"sun,omitempty"`
 	// ThinDisc and ThickDisc are the double-exponential disc shapes.
-	ThinDisc  *StructureDisc `yaml:"thin_disc,omitempty" json:"thin_disc,omitempty"`
-	ThickDisc *StructureDisc `yaml:"thick_disc,omitempty" json:"thick_disc,omitempty"`
+	ThinDisc  *StructureThinDisc `yaml:"thin_disc,omitempty" json:"thin_disc,omitempty"`
+	ThickDisc *StructureDisc     `yaml:"thick_disc,omitempty" json:"thick_disc,omitempty"`
 	// Halo is the flattened power-law halo.
 	Halo *StructureHalo `yaml:"halo,omitempty" json:"halo,omitempty"`
 	// Bulge is the triaxial bulge/bar.
@@ -50,6 +50,28 @@ type StructureSun struct {
 type StructureDisc struct {
 	ScaleLengthPc *float64 `yaml:"scale_length_pc,omitempty" json:"scale_length_pc,omitempty"`
 	ScaleHeightPc *float64 `yaml:"scale_height_pc,omitempty" json:"scale_height_pc,omitempty"`
+}
+
+// StructureThinDisc is the thin disc's shape, with an optional age-dependent scale height.
+type StructureThinDisc struct {
+	ScaleLengthPc *float64 `yaml:"scale_length_pc,omitempty" json:"scale_length_pc,omitempty"`
+	ScaleHeightPc *float64 `yaml:"scale_height_pc,omitempty" json:"scale_height_pc,omitempty"`
+	// Heating, when present, makes the scale height grow with age (see heating.go).
+	Heating *StructureHeating `yaml:"heating,omitempty" json:"heating,omitempty"`
+}
+
+// StructureHeating is the age-dependent thin-disc scale height H(τ) = H ((τ + τ1)/(τ_ref +
+// τ1))^β of galaxy.ThinDisc.ScaleHeightAtAgePc, applied in age slices (heating.go).
+type StructureHeating struct {
+	// Index is β (default 0.5, Wielen 1977 diffusion; allowed (0, 2]).
+	Index *float64 `yaml:"index,omitempty" json:"index,omitempty"`
+	// Offset is τ1 (default 0.1 Gyr; allowed (0, 14 Gyr]).
+	Offset *Duration `yaml:"offset,omitempty" json:"offset,omitempty"`
+	// ReferenceAge is τ_ref, the age whose scale height is scale_height_pc (default 5 Gyr;
+	// allowed [0, 14 Gyr]).
+	ReferenceAge *Duration `yaml:"reference_age,omitempty" json:"reference_age,omitempty"`
+	// Slices is the number of age slices (default 8; allowed 2–32).
+	Slices *int `yaml:"slices,omitempty" json:"slices,omitempty"`
 }
 
 // StructureHalo is the shape of the halo (galaxy.Halo; Jurić et al. 2008 eq. 24 with a
@@ -95,6 +117,16 @@ func (f *Field) GalaxyParams() galaxy.Params {
 	if v := st.ThinDisc; v != nil {
 		set(&p.ThinDisc.ScaleLengthPc, v.ScaleLengthPc)
 		set(&p.ThinDisc.ScaleHeightPc, v.ScaleHeightPc)
+		if h := v.Heating; h != nil {
+			p.ThinDisc.HeatingIndex, p.ThinDisc.HeatingTimescaleYr, p.ThinDisc.HeatingRefAgeYr = heatingDefaultIndex, heatingDefaultOffset, heatingDefaultRefAge
+			set(&p.ThinDisc.HeatingIndex, h.Index)
+			if h.Offset != nil {
+				p.ThinDisc.HeatingTimescaleYr = float64(*h.Offset)
+			}
+			if h.ReferenceAge != nil {
+				p.ThinDisc.HeatingRefAgeYr = float64(*h.ReferenceAge)
+			}
+		}
 	}
 	if v := st.ThickDisc; v != nil {
 		set(&p.ThickDisc.ScaleLengthPc, v.ScaleLengthPc)
@@ -120,25 +152,28 @@ func (f *Field) GalaxyParams() galaxy.Params {
 // structureKeys maps the parameter names of the galaxy package's range errors
 // (galaxy.RangeError.Field) to the keys under field.structure.
 var structureKeys = map[string]string{
-	"local_mass_density_msun_pc3": "local_density_msun_pc3",
-	"thick_to_thin_local":         "thick_to_thin_local",
-	"halo_to_thin_local":          "halo_to_thin_local",
-	"sun.r0_pc":                   "sun.r0_pc",
-	"sun.z_sun_pc":                "sun.z_pc",
-	"thin_disc scale_length_pc":   "thin_disc.scale_length_pc",
-	"thin_disc scale_height_pc":   "thin_disc.scale_height_pc",
-	"thick_disc scale_length_pc":  "thick_disc.scale_length_pc",
-	"thick_disc scale_height_pc":  "thick_disc.scale_height_pc",
-	"halo axis_ratio_q":           "halo.axis_ratio",
-	"halo power_law_index_n":      "halo.power_law_index",
-	"halo core_radius_pc":         "halo.core_radius_pc",
-	"halo break_radius_pc":        "halo.break_radius_pc",
-	"halo outer_index_n":          "halo.outer_index",
-	"bulge mass_msun":             "bulge.mass_msun",
-	"bulge x0_pc":                 "bulge.x0_pc",
-	"bulge y0_pc":                 "bulge.y0_pc",
-	"bulge z0_pc":                 "bulge.z0_pc",
-	"bulge bar_angle_deg":         "bulge.bar_angle_deg",
+	"local_mass_density_msun_pc3":    "local_density_msun_pc3",
+	"thick_to_thin_local":            "thick_to_thin_local",
+	"halo_to_thin_local":             "halo_to_thin_local",
+	"sun.r0_pc":                      "sun.r0_pc",
+	"sun.z_sun_pc":                   "sun.z_pc",
+	"thin_disc scale_length_pc":      "thin_disc.scale_length_pc",
+	"thin_disc scale_height_pc":      "thin_disc.scale_height_pc",
+	"thin_disc heating_index":        "thin_disc.heating.index",
+	"thin_disc heating_timescale_yr": "thin_disc.heating.offset",
+	"thin_disc heating_ref_age_yr":   "thin_disc.heating.reference_age",
+	"thick_disc scale_length_pc":     "thick_disc.scale_length_pc",
+	"thick_disc scale_height_pc":     "thick_disc.scale_height_pc",
+	"halo axis_ratio_q":              "halo.axis_ratio",
+	"halo power_law_index_n":         "halo.power_law_index",
+	"halo core_radius_pc":            "halo.core_radius_pc",
+	"halo break_radius_pc":           "halo.break_radius_pc",
+	"halo outer_index_n":             "halo.outer_index",
+	"bulge mass_msun":                "bulge.mass_msun",
+	"bulge x0_pc":                    "bulge.x0_pc",
+	"bulge y0_pc":                    "bulge.y0_pc",
+	"bulge z0_pc":                    "bulge.z0_pc",
+	"bulge bar_angle_deg":            "bulge.bar_angle_deg",
 }
 
 // galaxyNames rewrites the galaxy package's parameter names in free text to the
@@ -157,6 +192,15 @@ func (s *Scenario) validateStructure() error {
 	h := st.Halo
 	if h != nil && h.BreakRadiusPc != nil && *h.BreakRadiusPc > 0 && h.OuterIndex == nil {
 		return s.errf("field.structure.halo.outer_index", "missing: a halo break (break_radius_pc = %g pc) needs the index beyond it, allowed [0, 10] (Sesar, Jurić & Ivezić 2011 find 3.8)", *h.BreakRadiusPc)
+	}
+	if td := st.ThinDisc; td != nil && td.Heating != nil {
+		h := td.Heating
+		if h.Index != nil && !(*h.Index > 0) {
+			return s.errf("field.structure.thin_disc.heating.index", "%g is out of range; allowed: (0, 2] (leave out the heating block for one scale height)", *h.Index)
+		}
+		if h.Slices != nil && (*h.Slices < 2 || *h.Slices > heatingMaxSlices) {
+			return s.errf("field.structure.thin_disc.heating.slices", "%d is out of range; allowed: 2 to %d", *h.Slices, heatingMaxSlices)
+		}
 	}
 	p := s.Field.GalaxyParams()
 	if _, err := galaxy.NewModel(p); err != nil {

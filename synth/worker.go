@@ -35,7 +35,7 @@ func (p *Plan) Columns() []output.Column {
 type worker struct {
 	plan     *Plan
 	models   map[int]*evolve.Model
-	samplers map[[2]int]*galaxy.ShellSampler // (component, shell)
+	samplers map[[3]int]*galaxy.ShellSampler // (component, shell, age slice)
 	nb       int
 	absP     []float64
 	absC     []float64
@@ -47,7 +47,7 @@ type worker struct {
 func newWorker(p *Plan) *worker {
 	nb := len(p.Survey.Bands)
 	return &worker{plan: p, models: map[int]*evolve.Model{}, nb: nb,
-		samplers: map[[2]int]*galaxy.ShellSampler{},
+		samplers: map[[3]int]*galaxy.ShellSampler{},
 		absP:     make([]float64, nb), absC: make([]float64, nb), ratP: make([]float64, nb),
 		ratC: make([]float64, nb), det: make([]bool, nb)}
 }
@@ -142,7 +142,7 @@ func (w *worker) fill(ch ChunkRef, b *output.Batch) error {
 			fp = cp.field.locate(starIdx)
 			var keep bool
 			var err error
-			if m1, m2, a, rawFeH, keep, err = cp.field.draw(cp, fp, rm, rs); err != nil {
+			if m1, m2, a, rawFeH, keep, err = cp.field.draw(fp, rm, rs); err != nil {
 				return fmt.Errorf("component %s: %w", cp.Name, err)
 			}
 			if !keep {
@@ -192,7 +192,7 @@ func (w *worker) fill(ch ChunkRef, b *output.Batch) error {
 			d = dpc
 			avBase = cp.ext.avMag
 		} else {
-			l, bb, dpc, err := w.fieldPosition(ch.Component, fp.shell, rs)
+			l, bb, dpc, err := w.fieldPosition(ch.Component, fp.shell, fp.slice, rs)
 			if err != nil {
 				return fmt.Errorf("component %s: %w", cp.Name, err)
 			}
@@ -292,11 +292,11 @@ func (w *worker) fill(ch ChunkRef, b *output.Batch) error {
 // fieldPosition draws a field star's direction and distance inside its shell, with
 // density-weighted rejection sampling (package galaxy); the sampler of each shell is
 // built once per plan and cached in the worker.
-func (w *worker) fieldPosition(comp, shell int, r *rand.Rand) (l, b, d float64, err error) {
-	key := [2]int{comp, shell}
+func (w *worker) fieldPosition(comp, shell, slice int, r *rand.Rand) (l, b, d float64, err error) {
+	key := [3]int{comp, shell, slice}
 	s, ok := w.samplers[key]
 	if !ok {
-		if s, err = w.plan.sampler(comp, shell); err != nil {
+		if s, err = w.plan.sampler(comp, shell, slice); err != nil {
 			return 0, 0, 0, err
 		}
 		w.samplers[key] = s
