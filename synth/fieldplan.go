@@ -111,8 +111,8 @@ type fieldSlice struct {
 	cp           *ComponentPlan // the component, or a copy with the slice's ages
 	model        *galaxy.Model  // the density law of the slice
 	ageLo, ageHi float64
-	heightPc     float64 // thin-disc scale height of the slice (0: not a thin-disc slice)
-	// factor multiplies the slice model's shell masses (see heatedSlices); 1 otherwise.
+	heightPc     float64 // thin-disc scale height of the slice, pc (0 without heating)
+	// factor multiplies the slice model's shell masses (see heatedFactors); 1 otherwise.
 	factor            float64
 	initialPerPresent float64
 	live              *liveBound
