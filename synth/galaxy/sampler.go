@@ -19,7 +19,10 @@ import (
 // log d when the shell spans more than a factor 4 in distance. For each cell and bin
 // the envelope ρ_kj is the largest density on a 4 × 4 grid of sub-pixel centres × 5
 // distances (plus each sight line's mid-plane crossing), times the largest ratio between
-// neighbouring grid points in angle and in distance, times a margin of 1.25. A trial picks
+// neighbouring grid points in angle and in distance, times a margin of 1.25 (a grid bound
+// with a safety factor, our construction: it is not a proof for arbitrary densities, hence
+// the check below; a cell × bin shares its edge distances with the next bin, and a cell
+// whose variation splits it is abandoned as soon as that is known). A trial picks
 // (k, j) with probability ∝ ρ_kj Ω_k V_j, a direction uniform in pixel k
 // (HEALPix.SampleInPixel), rejected if outside the area, a distance ∝ d² in bin j, and
 // accepts with probability ρ/ρ_kj. The proposal is constant on each disjoint cell × bin,
@@ -150,10 +153,8 @@ func (m *Model) NewShellSampler(area Area, s Shell, name string) (*ShellSampler,
 	ca, hasCap := area.(capArea)
 	omega := area.SolidAngleSr()
 	type pending struct {
-		cell      samplerCell
-		env       [samplerBins]float64
-		vr        float64
-		evaluated bool
+		cell samplerCell
+		env  [samplerBins]float64
 	}
 	var queue, done []pending
 	for p := int64(0); p < 12; p++ {
@@ -167,10 +168,9 @@ func (m *Model) NewShellSampler(area Area, s Shell, name string) (*ShellSampler,
 		queue = queue[1:]
 		canSplit := q.cell.level+2 < 29 && len(done)+len(queue)+4 <= samplerMaxCells
 		split := canSplit && ss.level(q.cell.level).PixelAreaSr() > omega/32 // too large: split unseen
+		// evaluate: the envelope is kept unless the angular variation splits the cell
 		if !split {
-			q.env, q.vr = ss.cellEnvelope(q.cell)
-			q.evaluated = true
-			split = canSplit && q.vr > samplerSplitVar
+			q.env, _, split = ss.cellEnvelope(q.cell, canSplit)
 		}
 		if split {
 			for ch := q.cell.pix * 4; ch < q.cell.pix*4+4; ch++ {
@@ -180,9 +180,6 @@ func (m *Model) NewShellSampler(area Area, s Shell, name string) (*ShellSampler,
 				}
 			}
 			continue
-		}
-		if !q.evaluated {
-			q.env, q.vr = ss.cellEnvelope(q.cell)
 		}
 		done = append(done, q)
 	}
@@ -231,72 +228,166 @@ func (ss *ShellSampler) intersects(ca capArea, cl samplerCell) bool {
 	return ca.mayIntersectCap(x, y, z, h.pixelRadiusRad(cl.pix))
 }
 
-// cellEnvelope returns the envelope per radial bin of one cell and the largest max/min
-// density ratio across the cell's 16 directions at one distance (the splitting criterion:
-// angular variation only, since splitting a cell cannot reduce the radial one).
-func (ss *ShellSampler) cellEnvelope(cl samplerCell) (env [samplerBins]float64, varRatio float64) {
+// samplerNeighbours lists the pairs of angular neighbours on the 4 × 4 face grid of a
+// cell's 16 children at two levels down (nested numbering: child ch has face coordinates
+// ix = even bits, iy = odd bits of ch; Górski et al. 2005, sec. 4): 12 pairs along ix and
+// 12 along iy.
+var samplerNeighbours = func() (nb [24][2]uint8) {
+	n := 0
+	for ch := 0; ch < 16; ch++ {
+		ix, iy := compact(uint64(ch)), compact(uint64(ch)>>1)
+		if ix < 3 {
+			nb[n] = [2]uint8{uint8(ch), uint8(interleave(int64(ix+1), int64(iy)))}
+			n++
+		}
+		if iy < 3 {
+			nb[n] = [2]uint8{uint8(ch), uint8(interleave(int64(ix), int64(iy+1)))}
+			n++
+		}
+	}
+	return nb
+}()
+
+// cellEnvelope evaluates one cell: its envelope per radial bin (Msun pc⁻³) and the
+// splitting criterion varRatio, the largest max/min density ratio across the cell's 16
+// directions at one grid distance (angular variation only, since splitting a cell cannot
+// reduce the radial one). With canSplit it stops as soon as varRatio exceeds
+// samplerSplitVar and returns split = true and no envelope: varRatio is a running maximum
+// over the grid distances, so this is the decision the complete evaluation gives.
+//
+// Grid and bound (see ShellSampler): in bin j = [lo, hi) the density is evaluated at the 16
+// sub-pixel centres (two levels down) × the 5 distances lo + (hi − lo) p/4, p = 0…4, plus,
+// for each direction whose mid-plane crossing lies inside the bin, at that crossing; the
+// envelope is (largest value) × (largest ratio between radial neighbours p−1, p of one
+// direction) × (largest ratio between angular neighbours at one grid distance) × 1.25.
+// Neighbouring bins share their common edge (the p = 4 point of bin j is the p = 0 point
+// of bin j + 1, distance edges[j+1] exactly), so a direction costs 129 evaluations, not
+// 32 × 6. The edges are evaluated first (pass A, where a split is usually detected), then
+// the interior points and the crossings (pass B). The values, and so the envelope, are
+// those of the one-pass grid evaluation, only fewer. A NaN value makes its bin's
+// envelope NaN (the caller rejects it) and is left out of the spread at its distance, as
+// math.Max and math.Min would.
+func (ss *ShellSampler) cellEnvelope(cl samplerCell, canSplit bool) (env [samplerBins]float64, varRatio float64, split bool) {
 	m, c := ss.model, ss.comp
-	fine := ss.level(cl.level + 2)
+	h := ss.level(cl.level + 2)
 	var dirs [16][3]float64
 	var cross [16]float64
 	for ch := 0; ch < 16; ch++ {
-		th, ph := fine.Pix2Ang(cl.pix*16 + int64(ch))
+		th, ph := h.Pix2Ang(cl.pix*16 + int64(ch))
 		x, y, z := unitVector(ph*radToDeg, 90-th*radToDeg)
 		dirs[ch] = [3]float64{x, y, z}
 		cross[ch] = m.Frame.planeCrossingPc(x, y, z)
 	}
+
+	eval := func(ch int, dist float64) float64 {
+
+		x, y, z := m.Frame.dirToGalactocentric(dirs[ch][0], dirs[ch][1], dirs[ch][2], dist)
+		return c.DensityMsunPc3(x, y, z)
+	}
 	varRatio = 1
-	var vals [16][samplerBinPoints + 1]float64
+	// row folds one grid distance (16 values) into the splitting ratio; it returns the
+	// largest value, the largest angular-neighbour ratio and whether a value is NaN
+	row := func(v *[16]float64) (amax, ang float64, hasNaN bool) {
+		amin := math.Inf(1)
+		ang = 1
+		for _, x := range v {
+			if x != x {
+				hasNaN = true
+				continue
+			}
+			if x > amax {
+				amax = x
+			}
+			if x < amin {
+				amin = x
+			}
+		}
+		for _, nb := range samplerNeighbours {
+			if r := ratio(v[nb[0]], v[nb[1]]); r > ang {
+				ang = r
+			}
+		}
+		if hasNaN {
+			return amax, ang, true
+		}
+		if amin > 0 {
+			if r := amax / amin; r > varRatio {
+				varRatio = r
+			}
+		} else if amax > 0 {
+			varRatio = math.Inf(1)
+		}
+		return amax, ang, false
+	}
+	// pass A: the bin edges
+	var edge [samplerBins + 1][16]float64
+	var edgeMax, edgeAng [samplerBins + 1]float64
+	var edgeNaN [samplerBins + 1]bool
+	for e := 0; e <= samplerBins; e++ {
+		for ch := range edge[e] {
+			edge[e][ch] = eval(ch, ss.edges[e])
+		}
+		edgeMax[e], edgeAng[e], edgeNaN[e] = row(&edge[e])
+		if canSplit && varRatio > samplerSplitVar {
+			return env, varRatio, true
+		}
+	}
+	// pass B: interior points and mid-plane crossings, bin by bin
+	const np = samplerBinPoints // grid distances per bin, edges included
+	var vals [np + 1][16]float64
 	for j := 0; j < samplerBins; j++ {
 		lo, hi := ss.edges[j], ss.edges[j+1]
-		vmax := 0.0
-		rad, ang := 1.0, 1.0
-		for ch := 0; ch < 16; ch++ {
-			for p := 0; p <= samplerBinPoints; p++ {
-				dist := lo + (hi-lo)*float64(p)/(samplerBinPoints-1)
-				if p == samplerBinPoints {
-					dist = hi
-					if cross[ch] > lo && cross[ch] < hi {
-						dist = cross[ch]
-					}
-				}
-				x, y, z := m.Frame.dirToGalactocentric(dirs[ch][0], dirs[ch][1], dirs[ch][2], dist)
-				v := c.DensityMsunPc3(x, y, z)
-				vals[ch][p] = v
-				vmax = math.Max(vmax, v)
-				if p > 0 && p < samplerBinPoints {
-					rad = math.Max(rad, ratio(v, vals[ch][p-1]))
+		vals[0], vals[np-1] = edge[j], edge[j+1]
+		vmax := math.Max(edgeMax[j], edgeMax[j+1])
+		ang := math.Max(edgeAng[j], edgeAng[j+1])
+		nan := edgeNaN[j] || edgeNaN[j+1]
+		for p := 1; p < np-1; p++ {
+			dist := lo + (hi-lo)*float64(p)/(np-1)
+			for ch := range vals[p] {
+				vals[p][ch] = eval(ch, dist)
+			}
+			amax, a, hasNaN := row(&vals[p])
+			vmax, ang, nan = math.Max(vmax, amax), math.Max(ang, a), nan || hasNaN
+		}
+		if canSplit && varRatio > samplerSplitVar {
+			return env, varRatio, true
+		}
+		rad := 1.0
+		for p := 1; p < np; p++ {
+			for ch := 0; ch < 16; ch++ {
+				if r := ratio(vals[p][ch], vals[p-1][ch]); r > rad {
+					rad = r
 				}
 			}
 		}
-		// angular neighbours on the 4 × 4 face grid of the children (nested bit interleaving)
+		// mid-plane crossings inside the bin (elsewhere the point would repeat the edge hi)
+		anyCross := false
 		for ch := 0; ch < 16; ch++ {
-			ix, iy := compact(uint64(ch)), compact(uint64(ch)>>1)
-			for _, nb := range [][2]uint64{{ix + 1, iy}, {ix, iy + 1}} {
-				if nb[0] > 3 || nb[1] > 3 {
-					continue
+			vals[np][ch] = vals[np-1][ch]
+			if cross[ch] > lo && cross[ch] < hi {
+				v := eval(ch, cross[ch])
+				vals[np][ch] = v
+				anyCross = true
+				if v != v {
+					nan = true
+				} else if v > vmax {
+					vmax = v
 				}
-				k := interleave(int64(nb[0]), int64(nb[1]))
-				for p := 0; p <= samplerBinPoints; p++ {
-					ang = math.Max(ang, ratio(vals[ch][p], vals[k][p]))
+			}
+		}
+		if anyCross {
+			for _, nb := range samplerNeighbours {
+				if r := ratio(vals[np][nb[0]], vals[np][nb[1]]); r > ang {
+					ang = r
 				}
 			}
 		}
 		env[j] = vmax * rad * ang * 1.25
-		for p := 0; p < samplerBinPoints; p++ { // spread across directions at fixed distance
-			amax, amin := 0.0, math.Inf(1)
-			for ch := 0; ch < 16; ch++ {
-				amax = math.Max(amax, vals[ch][p])
-				amin = math.Min(amin, vals[ch][p])
-			}
-			if amin > 0 {
-				varRatio = math.Max(varRatio, amax/amin)
-			} else if amax > 0 {
-				varRatio = math.Inf(1)
-			}
+		if nan {
+			env[j] = math.NaN()
 		}
 	}
-	return env, varRatio
+	return env, varRatio, false
 }
 
 // ratio returns max(a/b, b/a) for positive a, b and 1 otherwise.
