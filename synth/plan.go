@@ -36,29 +36,37 @@ type Plan struct {
 	bounds  map[int]*keyNodes // brightness nodes of the detectability bound by rounded [Fe/H]
 
 	samplerMu sync.Mutex
-	samplers  map[[3]int]*galaxy.ShellSampler // (component, shell, age slice)
+	samplers  map[[3]int]*samplerEntry // (component, shell, age slice)
+}
+
+// samplerEntry is a position sampler built once, outside the plan's lock.
+type samplerEntry struct {
+	once sync.Once
+	s    *galaxy.ShellSampler
+	err  error
 }
 
 // sampler returns the position sampler of a Galactic component's shell, building it
-// once per plan (galaxy.ShellSampler is safe for concurrent use and its draws depend
-// only on the random stream passed in).
+// once per plan; different shells are built concurrently (galaxy.ShellSampler is safe
+// for concurrent use, and it and its draws depend only on the shell and the random
+// stream passed in, so which worker builds it does not matter).
 func (p *Plan) sampler(comp, shell, slice int) (*galaxy.ShellSampler, error) {
-	p.samplerMu.Lock()
-	defer p.samplerMu.Unlock()
 	key := [3]int{comp, shell, slice}
-	if s, ok := p.samplers[key]; ok {
-		return s, nil
-	}
-	f := p.Components[comp].field
-	s, err := f.slices[slice].model.NewShellSampler(f.area, f.shells[shell], f.name)
-	if err != nil {
-		return nil, err
-	}
+	p.samplerMu.Lock()
 	if p.samplers == nil {
-		p.samplers = map[[3]int]*galaxy.ShellSampler{}
+		p.samplers = map[[3]int]*samplerEntry{}
 	}
-	p.samplers[key] = s
-	return s, nil
+	e, ok := p.samplers[key]
+	if !ok {
+		e = &samplerEntry{}
+		p.samplers[key] = e
+	}
+	p.samplerMu.Unlock()
+	e.once.Do(func() {
+		f := p.Components[comp].field
+		e.s, e.err = f.slices[slice].model.NewShellSampler(f.area, f.shells[shell], f.name)
+	})
+	return e.s, e.err
 }
 
 // model returns the evolution model of the rounded metallicity key (fehRounded dex),
