@@ -17,8 +17,9 @@ import (
 // [Fe/H]), so that the phases of neighbouring masses and metallicities line up. On a
 // fixed grid of initial mass (boundMasses nodes, logarithmic over the evolution model's
 // 0.08–150 Msun) and a fixed grid of τ (one main-sequence cell τ < boundTauMS, then
-// boundTauPost cells logarithmic up to τ = 2, then boundTauLate cells up to the oldest
-// age of the lightest star that leaves the main sequence), and for one rounded
+// boundTauPost cells logarithmic up to τ = 2, then boundTauLate cells logarithmic up to
+// τ = 10⁴, beyond every allowed age of the shortest-lived star, the last open-ended),
+// and for one rounded
 // metallicity at a time, keyNodes holds the absolute magnitudes per survey band of every
 // grid mass at every τ edge, at every phase end (end of the main sequence, base of the
 // giant branch, helium ignition, end of core helium burning, end of the AGB — the
@@ -32,7 +33,7 @@ import (
 //
 // A cell of (metallicity bin × mass interval × τ interval) takes the brightest magnitudes
 // of its corners (two metallicities × two masses × two τ) and of every phase point of its
-// four corner tracks inside the τ interval widened by 1 %; in the main-sequence cell, the
+// four corner tracks inside the τ interval widened by 0.2 %; in the main-sequence cell, the
 // end-of-main-sequence brightness of the four corners. Inside a cell, t_MS is interpolated
 // bilinearly in (ln m, [Fe/H]) between the corners' ln t_MS (the interpolation error of
 // this smooth function over one cell, ≲ 1e-4 in τ, is far inside the widening). A star
@@ -48,9 +49,10 @@ import (
 //
 // The approximation is the interpolation between grid corners: brightness is taken to
 // vary monotonically between neighbouring masses, metallicities and the sampled phase
-// points, which the margin covers; the test of issue 6 compares the detected samples with
-// and without the bound, and checks that every star detected without it is one the bound
-// keeps.
+// points, which the margin covers; the tests of issue 6 compare the detected samples with
+// and without the bound (a deep and a bright survey), and check that every star detected
+// without it is one the bound keeps, apart from noise-only detections more than 3 mag
+// below the depth, whose number they bound by the 4.7σ tail.
 
 const (
 	boundMasses   = 320
