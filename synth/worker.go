@@ -107,9 +107,11 @@ const (
 // columns with capacity ≥ the chunk size). The draws of chunk (component c, index k) come
 // from the streams (seed, c, k, mass) and (seed, c, k, stars) only, in a fixed order per
 // star: mass; then age, [Fe/H], binary (two uniforms), position, A_V spread, and two per
-// band for the observation. In Galactic fields a system that cannot be detected is
-// dropped after its binary draw (mass–age test) or after its evolution (luminosity test)
-// and gets no row; the remaining draws of the stream then go to the next star.
+// band for the observation. In Galactic fields with the detectability bound the mass
+// stream instead carries the proposal of liveBound.draw (cell, [Fe/H], masses, thinning,
+// age; the companion of a class-1 system from the star stream); a proposal thinned away,
+// or a system found too faint after its evolution (luminosity test), gets no row, and the
+// remaining draws of the streams go to the next star.
 func (w *worker) fill(ch ChunkRef, b *output.Batch) error {
 	p := w.plan
 	cp := p.Components[ch.Component]
