@@ -76,6 +76,18 @@ const (
 	liveSubMass = 4
 )
 
+// subIndices[n] lists 0 … n−1.
+var subIndices = func() map[int][]int {
+	m := map[int][]int{}
+	for _, n := range []int{liveSubFeH, liveSubMass} {
+		m[n] = make([]int, n)
+		for k := range m[n] {
+			m[n][k] = k
+		}
+	}
+	return m
+}()
+
 // liveCell is a proposal entry: a live segment of a (sub-)cell.
 type liveCell struct {
 	level    int32
@@ -337,7 +349,7 @@ func newLiveBound(p *Plan, cp *ComponentPlan, muInner []float64) (*liveBound, er
 				// Narrow segments after the main sequence: proposals from sub-cells.
 				fss, mss := []int{-1}, []int{-1}
 				if sg.t0 >= boundTauMS && sg.t1 <= boundTauSplit {
-					fss, mss = []int{0, 1}, []int{0, 1, 2, 3}
+					fss, mss = subIndices[liveSubFeH], subIndices[liveSubMass]
 					if fixed {
 						fss = []int{-1}
 					}
