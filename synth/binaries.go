@@ -53,13 +53,32 @@ func (b *binaryModel) draw(m1 float64, r *rand.Rand) float64 {
 	if u1 >= b.fractionAt(m1) {
 		return 0
 	}
-	var q float64
+	return b.ratioQuantile(b.qMin, b.qMax, u2) * m1
+}
+
+// ratioProb returns the probability that the mass ratio lies in [a, b] (clipped to
+// [q_min, q_max]) under dN/dq ∝ q^γ: (b^{γ+1} − a^{γ+1}) / (q_max^{γ+1} − q_min^{γ+1}),
+// or ln(b/a) / ln(q_max/q_min) for γ = −1.
+func (b *binaryModel) ratioProb(lo, hi float64) float64 {
+	lo, hi = math.Max(lo, b.qMin), math.Min(hi, b.qMax)
+	if hi <= lo {
+		return 0
+	}
 	g1 := b.gamma + 1
 	if math.Abs(g1) < 1e-12 {
-		q = b.qMin * math.Pow(b.qMax/b.qMin, u2)
-	} else {
-		lo, hi := math.Pow(b.qMin, g1), math.Pow(b.qMax, g1)
-		q = math.Pow(lo+u2*(hi-lo), 1/g1)
+		return math.Log(hi/lo) / math.Log(b.qMax/b.qMin)
 	}
-	return q * m1
+	return (math.Pow(hi, g1) - math.Pow(lo, g1)) / (math.Pow(b.qMax, g1) - math.Pow(b.qMin, g1))
+}
+
+// ratioQuantile inverts the ratio law restricted to [lo, hi] ∩ [q_min, q_max] at the
+// uniform u: q = (lo^{γ+1} + u (hi^{γ+1} − lo^{γ+1}))^{1/(γ+1)}, or log-uniform for γ = −1.
+func (b *binaryModel) ratioQuantile(lo, hi, u float64) float64 {
+	lo, hi = math.Max(lo, b.qMin), math.Min(hi, b.qMax)
+	g1 := b.gamma + 1
+	if math.Abs(g1) < 1e-12 {
+		return lo * math.Pow(hi/lo, u)
+	}
+	pl, ph := math.Pow(lo, g1), math.Pow(hi, g1)
+	return math.Pow(pl+u*(ph-pl), 1/g1)
 }

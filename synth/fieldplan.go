@@ -160,14 +160,7 @@ func (cp *ComponentPlan) MayDetect(dPc, m1, m2, ageYr, fehDex float64) bool {
 	if s == len(f.shells) {
 		return true
 	}
-	k := len(f.slices) - 1
-	for n, sl := range f.slices {
-		if ageYr < sl.ageHi {
-			k = n
-			break
-		}
-	}
-	lb := f.slices[k].live
+	lb := f.slices[f.sliceOf(ageYr)].live
 	b := sort.SearchFloat64s(lb.edges, fehDex) - 1
 	b = max(0, min(b, len(lb.edges)-2))
 	_, fq := quantiseFeH(fehDex)
@@ -175,6 +168,16 @@ func (cp *ComponentPlan) MayDetect(dPc, m1, m2, ageYr, fehDex float64) bool {
 		return true
 	}
 	return m2 >= minEvolveMass && int(lb.level(b, m2, fq, ageYr)) > s
+}
+
+// sliceOf returns the index of the age slice holding age ageYr.
+func (f *fieldPlan) sliceOf(ageYr float64) int {
+	for k, sl := range f.slices {
+		if ageYr < sl.ageHi {
+			return k
+		}
+	}
+	return len(f.slices) - 1
 }
 
 // locate returns the position of the component's star with index starIdx.

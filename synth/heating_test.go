@@ -127,13 +127,7 @@ func TestHeatedVerticalDistribution(t *testing.T) {
 			dist := b.Cols[cDist].([]float32)
 			age := b.Cols[cAge].([]float32)
 			for j := 0; j < b.N; j++ {
-				k := nk - 1
-				for kk, sl := range f.slices {
-					if float64(age[j]) < sl.ageHi {
-						k = kk
-						break
-					}
-				}
+				k := f.sliceOf(float64(age[j]))
 				d := float64(dist[j])
 				sumD[k] += d
 				sumD2[k] += d * d

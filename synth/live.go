@@ -227,14 +227,18 @@ func (lb *liveBound) tRange(b, fs, i, ms int) (lo, hi float64) {
 	return lo, hi
 }
 
+// ageCDF returns G(a), the component's age distribution function, with G(+Inf) = 1.
+func ageCDF(cp *ComponentPlan, a float64) float64 {
+	if math.IsInf(a, 1) {
+		return 1
+	}
+	return cp.Ages.CDF(a)
+}
+
 // ageProb returns G(t1) − G(t0) for the component's age distribution (t0 ≥ 0; t1 may be
 // +Inf).
 func ageProb(cp *ComponentPlan, a0, a1 float64) float64 {
-	g1 := 1.0
-	if !math.IsInf(a1, 1) {
-		g1 = cp.Ages.CDF(a1)
-	}
-	return math.Max(0, g1-cp.Ages.CDF(a0))
+	return math.Max(0, ageCDF(cp, a1)-ageCDF(cp, a0))
 }
 
 // newLiveBound builds the cells of a component for the shells whose inner distance
@@ -411,33 +415,6 @@ func (lb *liveBound) level(b int, m, fq, ageYr float64) int32 {
 	return lb.segLevel[seg]
 }
 
-// qProb returns the probability that the mass ratio q lies in [a, b] (clipped to
-// [q_min, q_max]) under the ratio law dN/dq ∝ q^γ.
-func (lb *liveBound) qProb(a, b float64) float64 {
-	bm := lb.bin
-	a, b = math.Max(a, bm.qMin), math.Min(b, bm.qMax)
-	if b <= a {
-		return 0
-	}
-	g1 := bm.gamma + 1
-	if math.Abs(g1) < 1e-12 {
-		return math.Log(b/a) / math.Log(bm.qMax/bm.qMin)
-	}
-	return (math.Pow(b, g1) - math.Pow(a, g1)) / (math.Pow(bm.qMax, g1) - math.Pow(bm.qMin, g1))
-}
-
-// qDraw draws q from the mass-ratio law restricted to [a, b] ∩ [q_min, q_max].
-func (lb *liveBound) qDraw(a, b, u float64) float64 {
-	bm := lb.bin
-	a, b = math.Max(a, bm.qMin), math.Min(b, bm.qMax)
-	g1 := bm.gamma + 1
-	if math.Abs(g1) < 1e-12 {
-		return a * math.Pow(b/a, u)
-	}
-	lo, hi := math.Pow(a, g1), math.Pow(b, g1)
-	return math.Pow(lo+u*(hi-lo), 1/g1)
-}
-
 // companionRange returns the primary masses that can have a companion in [x0, x1] and
 // the breakpoints of f(m1) P(q m1 ∈ [x0, x1]) inside them (sorted, with the ends).
 func (lb *liveBound) companionRange(cp *ComponentPlan, x0, x1 float64) []float64 {
@@ -461,9 +438,9 @@ func (lb *liveBound) companionRange(cp *ComponentPlan, x0, x1 float64) []float64
 	return pts
 }
 
-// companionProb returns H for the companion mass interval [x0, x1] (see liveBound).
-func (lb *liveBound) companionProb(cp *ComponentPlan, x0, x1 float64) float64 {
-	pts := lb.companionRange(cp, x0, x1)
+// companionProb returns H for the companion mass interval [x0, x1] (see liveBound),
+// integrating between the breakpoints pts of companionRange.
+func (lb *liveBound) companionProb(cp *ComponentPlan, x0, x1 float64, pts []float64) float64 {
 	sum := 0.0
 	for n := 0; n+1 < len(pts); n++ {
 		p0, p1 := cp.IMF.CDF(pts[n]), cp.IMF.CDF(pts[n+1])
@@ -472,7 +449,7 @@ func (lb *liveBound) companionProb(cp *ComponentPlan, x0, x1 float64) float64 {
 		}
 		sum += quad.Fixed(func(p float64) float64 {
 			m := cp.IMF.Quantile(p)
-			return lb.bin.fractionAt(m) * lb.qProb(x0/m, x1/m)
+			return lb.bin.fractionAt(m) * lb.bin.ratioProb(x0/m, x1/m)
 		}, p0, p1, 16, quad.Legendre{}, 0)
 	}
 	return sum
@@ -491,12 +468,12 @@ func (lb *liveBound) companionTable(cp *ComponentPlan, x0, x1 float64) companion
 	for _, m := range ct.pts {
 		for _, mm := range [2]float64{m, m * (1 - 1e-12)} {
 			fMax = math.Max(fMax, lb.bin.fractionAt(mm))
-			wMax = math.Max(wMax, lb.qProb(x0/mm, x1/mm))
+			wMax = math.Max(wMax, lb.bin.ratioProb(x0/mm, x1/mm))
 		}
 	}
 	ct.env = fMax * wMax * (1 + 1e-9)
 	ct.p0, ct.p1 = cp.IMF.CDF(ct.pts[0]), cp.IMF.CDF(ct.pts[len(ct.pts)-1])
-	ct.h = lb.companionProb(cp, x0, x1)
+	ct.h = lb.companionProb(cp, x0, x1, ct.pts)
 	return ct
 }
 
@@ -514,8 +491,8 @@ func (lb *liveBound) drawPrimaryGivenCompanion(cp *ComponentPlan, ct *companionT
 	}
 	for it := 0; it < 1_000_000; it++ {
 		m := cp.IMF.Quantile(ct.p0 + r.Float64()*(ct.p1-ct.p0))
-		if r.Float64()*ct.env < lb.bin.fractionAt(m)*lb.qProb(ct.x0/m, ct.x1/m) {
-			q := lb.qDraw(ct.x0/m, ct.x1/m, r.Float64())
+		if r.Float64()*ct.env < lb.bin.fractionAt(m)*lb.bin.ratioProb(ct.x0/m, ct.x1/m) {
+			q := lb.bin.ratioQuantile(ct.x0/m, ct.x1/m, r.Float64())
 			return m, math.Min(q*m, m), nil
 		}
 	}
@@ -556,11 +533,7 @@ func (lb *liveBound) draw(cp *ComponentPlan, s int, companion bool, rm, rs *rand
 	// Thinning from the entry's envelope to the star's own t_MS, then the age.
 	t := lb.tMS(b, i, mStar, fq)
 	a0, a1 := c.t0*t, c.t1*t
-	g0 := cp.Ages.CDF(a0)
-	g1 := 1.0
-	if !math.IsInf(a1, 1) {
-		g1 = cp.Ages.CDF(a1)
-	}
+	g0, g1 := ageCDF(cp, a0), ageCDF(cp, a1)
 	if rm.Float64()*c.env >= g1-g0 {
 		return m1, m2, 0, feh, false, nil
 	}

@@ -127,7 +127,7 @@ func TestCompanionProbMatchesDraws(t *testing.T) {
 		}
 	}
 	for k, iv := range ivs {
-		h := lb.companionProb(cp, iv[0], iv[1])
+		h := lb.companionTable(cp, iv[0], iv[1]).h
 		p := float64(counts[k]) / n
 		se := math.Sqrt(h * (1 - h) / n)
 		t.Logf("companion in [%g, %g) Msun: H = %.6f, draws %.6f ± %.6f", iv[0], iv[1], h, p, se)
